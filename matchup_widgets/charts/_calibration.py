@@ -1,0 +1,257 @@
+"""Charts for the calibration panel: the Brier surface, skill over baselines, reliability, methods.
+
+Each builder takes a small table (as the calibration result hands it over) and returns an
+altair chart; none computes a statistic beyond picking rows to show.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+
+import altair as alt
+import pandas as pd
+
+from ._tables import require_columns
+from ._theme import INK, MUTED, SHARE_RAMP, SIDE_COLORS, WARNING
+
+#: The fitted settings a Brier surface is laid out over, with the words on screen.
+SURFACE_AXES: dict[str, str] = {
+    "pitcher_weight": "Pitcher weight",
+    "batter_prior_pa": "Batter prior (PA)",
+    "pitcher_prior_pa": "Pitcher prior (PA)",
+}
+
+
+def _slice_surface(surface: pd.DataFrame, x: str, y: str, best: Mapping[str, float]) -> tuple[pd.DataFrame, str]:
+    """Keep the rows of ``surface`` whose other settings equal the best ones; say which."""
+    rows = surface
+    held = []
+    for col in SURFACE_AXES:
+        if col in (x, y) or col not in rows.columns or rows[col].nunique() <= 1:
+            continue
+        value = best[col]
+        # nearest grid value, so a best setting found off the grid still selects a slice
+        nearest = rows[col].iloc[(rows[col] - value).abs().to_numpy().argmin()]
+        rows = rows[rows[col] == nearest]
+        held.append(f"{SURFACE_AXES[col].lower()} {nearest:g}")
+    return rows, ", ".join(held)
+
+
+def brier_surface_chart(
+    surface: pd.DataFrame,
+    *,
+    best: Mapping[str, float] | None = None,
+    x: str = "pitcher_weight",
+    y: str = "batter_prior_pa",
+    width: int = 320,
+    height: int = 220,
+) -> alt.LayerChart:
+    """Heat map of the held-out Brier score over two fitted settings, the optimum marked.
+
+    Parameters
+    ----------
+    surface : DataFrame
+        One row per grid point: columns ``x``, ``y``, ``brier`` and any other fitted
+        settings (``pitcher_weight``, ``batter_prior_pa``, ``pitcher_prior_pa``).
+    best : mapping, optional
+        The chosen settings (column -> value). Settings other than ``x`` and ``y`` are held
+        at these values (nearest grid point); the optimum is marked at ``best[x], best[y]``.
+        Default: the grid row with the lowest Brier score.
+    x, y : str
+        The settings on the horizontal and vertical axes.
+    width, height : int
+        Size in pixels (fixed, so the chart renders inside a hidden tab).
+
+    Returns
+    -------
+    alt.LayerChart
+        A ``rect`` layer (darker = lower Brier score, i.e. better), a ring at the optimum
+        and its label.
+
+    Examples
+    --------
+    >>> s = pd.DataFrame({"pitcher_weight": [0.4, 0.4, 0.6, 0.6],
+    ...                   "batter_prior_pa": [100, 200, 100, 200],
+    ...                   "brier": [0.70, 0.69, 0.68, 0.685]})
+    >>> spec = brier_surface_chart(s).to_dict()
+    >>> [layer["mark"]["type"] for layer in spec["layer"]]
+    ['rect', 'point', 'text']
+    """
+    require_columns(surface, [x, y, "brier"], where="brier_surface_chart")
+    if best is None:
+        best = surface.loc[surface["brier"].idxmin()].to_dict()
+    rows, held = _slice_surface(surface, x, y, best)
+    rows = rows[[x, y, "brier"]].reset_index(drop=True)
+    marker = pd.DataFrame({x: [best[x]], y: [best[y]], "label": [f"best: {best[x]:g}, {best[y]:g}"]})
+    x_title, y_title = SURFACE_AXES.get(x, x), SURFACE_AXES.get(y, y)
+    title = "Brier score on held-out plate appearances (lower is better)"
+    subtitle = f"{held} held at the optimum" if held else ""
+    # ordinal axes: the grid is the set of values tried, shown as even cells
+    heat = (
+        alt.Chart(rows)
+        .mark_rect()
+        .encode(
+            x=alt.X(f"{x}:O", title=x_title, axis=alt.Axis(format="~g", labelAngle=0)),
+            y=alt.Y(f"{y}:O", title=y_title, sort="descending", axis=alt.Axis(format="~g")),
+            color=alt.Color(
+                "brier:Q",
+                title="Brier score",
+                scale=alt.Scale(range=list(reversed(SHARE_RAMP)), zero=False),
+                legend=alt.Legend(format=".4f", orient="right"),
+            ),
+            tooltip=[
+                alt.Tooltip(f"{x}:Q", title=x_title, format="~g"),
+                alt.Tooltip(f"{y}:Q", title=y_title, format="~g"),
+                alt.Tooltip("brier:Q", title="Brier score", format=".5f"),
+            ],
+        )
+    )
+    ring = (
+        alt.Chart(marker)
+        .mark_point(shape="circle", size=260, strokeWidth=3, color=WARNING, filled=False)
+        .encode(x=alt.X(f"{x}:O"), y=alt.Y(f"{y}:O", sort="descending"))
+    )
+    label = (
+        alt.Chart(marker)
+        .mark_text(align="left", dx=14, dy=-10, color=INK, fontWeight="bold")
+        .encode(x=alt.X(f"{x}:O"), y=alt.Y(f"{y}:O", sort="descending"), text="label:N")
+    )
+    return alt.layer(heat, ring, label).properties(
+        width=width, height=height, title=alt.Title(title, subtitle=subtitle, subtitleColor=MUTED)
+    )
+
+
+def skill_chart(skill: pd.DataFrame, *, width: int = 320) -> alt.LayerChart:
+    """Bars of the Brier skill score of the fitted blend over each baseline forecast.
+
+    Parameters
+    ----------
+    skill : DataFrame
+        Columns ``baseline`` (name on screen) and ``skill`` (1 - Brier / Brier of the
+        baseline: above 0 means the fitted blend beats that baseline).
+    width : int
+        Width in pixels.
+
+    Returns
+    -------
+    alt.LayerChart
+
+    Examples
+    --------
+    >>> t = pd.DataFrame({"baseline": ["league", "batter only"], "skill": [0.004, 0.01]})
+    >>> skill_chart(t).to_dict()["layer"][0]["mark"]["type"]
+    'bar'
+    """
+    require_columns(skill, ["baseline", "skill"], where="skill_chart")
+    rows = skill[["baseline", "skill"]].reset_index(drop=True)
+    bars = (
+        alt.Chart(rows)
+        .mark_bar(color=SIDE_COLORS["matchup"], height=16)
+        .encode(
+            x=alt.X("skill:Q", title="Brier skill over the baseline", axis=alt.Axis(format=".1%")),
+            y=alt.Y("baseline:N", title=None, sort=None),
+            tooltip=[alt.Tooltip("baseline:N", title="Baseline"), alt.Tooltip("skill:Q", title="Skill", format=".2%")],
+        )
+    )
+    zero = alt.Chart(pd.DataFrame({"skill": [0.0]})).mark_rule(color=MUTED).encode(x="skill:Q")
+    return alt.layer(bars, zero).properties(width=width, title="Skill of the fitted blend over each baseline")
+
+
+def reliability_chart(table: pd.DataFrame, *, columns: int = 3, size: int = 130) -> alt.FacetChart:
+    """Reliability diagram per outcome: mean forecast against observed share, by forecast bin.
+
+    Parameters
+    ----------
+    table : DataFrame
+        One row per outcome x bin: columns ``outcome``, ``predicted`` (mean forecast in the
+        bin), ``observed`` (share of held-out PAs with that outcome) and ``n`` (PAs in the bin).
+    columns : int
+        Panels per row.
+    size : int
+        Width and height of each panel in pixels.
+
+    Returns
+    -------
+    alt.FacetChart
+        One panel per outcome; the dashed diagonal is perfect calibration.
+
+    Examples
+    --------
+    >>> t = pd.DataFrame({"outcome": ["K", "K"], "predicted": [0.2, 0.3],
+    ...                   "observed": [0.21, 0.28], "n": [50, 40]})
+    >>> spec = reliability_chart(t).to_dict()
+    >>> spec["facet"]["field"], len(spec["spec"]["layer"])
+    ('outcome', 3)
+    """
+    require_columns(table, ["outcome", "predicted", "observed", "n"], where="reliability_chart")
+    rows = table[["outcome", "predicted", "observed", "n"]].reset_index(drop=True)
+    order = list(pd.unique(rows["outcome"].to_numpy()))
+    base = alt.Chart().encode(x=alt.X("predicted:Q", title="Forecast", axis=alt.Axis(format=".0%", tickCount=4)))
+    diagonal = base.mark_line(color=MUTED, strokeDash=[4, 3]).encode(y=alt.Y("predicted:Q"))
+    line = base.mark_line(color=SIDE_COLORS["matchup"], strokeWidth=1.2).encode(
+        y=alt.Y("observed:Q", title="Observed", axis=alt.Axis(format=".0%", tickCount=4))
+    )
+    points = base.mark_circle(color=SIDE_COLORS["matchup"], opacity=0.9).encode(
+        y=alt.Y("observed:Q"),
+        size=alt.Size("n:Q", title="PAs in bin", legend=alt.Legend(orient="bottom")),
+        tooltip=[
+            alt.Tooltip("outcome:N", title="Outcome"),
+            alt.Tooltip("predicted:Q", title="Forecast", format=".1%"),
+            alt.Tooltip("observed:Q", title="Observed", format=".1%"),
+            alt.Tooltip("n:Q", title="PAs"),
+        ],
+    )
+    return (
+        alt.layer(diagonal, line, points, data=rows)
+        .properties(width=size, height=size)
+        .facet(facet=alt.Facet("outcome:N", title=None, sort=order), columns=columns)
+        .resolve_scale(x="independent", y="independent")
+        .properties(title="Reliability on held-out plate appearances (dashed: forecast = observed)")
+    )
+
+
+def method_comparison_chart(table: pd.DataFrame, *, value: str = "brier", width: int = 320) -> alt.Chart:
+    """Dot plot of a held-out score for each blend method and basis.
+
+    Parameters
+    ----------
+    table : DataFrame
+        Columns ``method``, ``basis`` and ``value`` (default ``brier``; lower is better).
+    value : str
+        The score column to plot.
+    width : int
+        Width in pixels.
+
+    Returns
+    -------
+    alt.Chart
+        The x scale does not start at zero, so small differences between methods show.
+
+    Examples
+    --------
+    >>> t = pd.DataFrame({"method": ["linear", "odds-ratio"], "basis": ["observed"] * 2,
+    ...                   "brier": [0.70, 0.69]})
+    >>> method_comparison_chart(t).to_dict()["mark"]["type"]
+    'point'
+    """
+    require_columns(table, ["method", "basis", value], where="method_comparison_chart")
+    rows = table[["method", "basis", value]].reset_index(drop=True)
+    bases = list(pd.unique(rows["basis"].to_numpy()))
+    colors = [SIDE_COLORS["matchup"], SIDE_COLORS["batter"], SIDE_COLORS["pitcher"]]
+    return (
+        alt.Chart(rows)
+        .mark_point(filled=True, size=90)
+        .encode(
+            x=alt.X(f"{value}:Q", title="Held-out Brier score (lower is better)" if value == "brier" else value,
+                    scale=alt.Scale(zero=False), axis=alt.Axis(format=".4f", tickCount=5)),
+            y=alt.Y("method:N", title="Blend method", sort=None),
+            color=alt.Color("basis:N", title="Basis", scale=alt.Scale(domain=bases, range=colors[: len(bases)])),
+            shape=alt.Shape("basis:N", title="Basis", scale=alt.Scale(domain=bases)),
+            tooltip=[
+                alt.Tooltip("method:N", title="Method"),
+                alt.Tooltip("basis:N", title="Basis"),
+                alt.Tooltip(f"{value}:Q", title=value, format=".5f"),
+            ],
+        )
+        .properties(width=width, title="Blend methods compared on the same held-out games")
+    )
