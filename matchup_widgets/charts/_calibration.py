@@ -12,7 +12,7 @@ import altair as alt
 import pandas as pd
 
 from ._tables import require_columns
-from ._theme import INK, MUTED, SHARE_RAMP, SIDE_COLORS, WARNING
+from ._theme import MUTED, SHARE_RAMP, SIDE_COLORS, WARNING, style
 
 #: The fitted settings a Brier surface is laid out over, with the words on screen.
 SURFACE_AXES: dict[str, str] = {
@@ -33,7 +33,7 @@ def _slice_surface(surface: pd.DataFrame, x: str, y: str, best: Mapping[str, flo
         # nearest grid value, so a best setting found off the grid still selects a slice
         nearest = rows[col].iloc[(rows[col] - value).abs().to_numpy().argmin()]
         rows = rows[rows[col] == nearest]
-        held.append(f"{SURFACE_AXES[col].lower()} {nearest:g}")
+        held.append(f"{SURFACE_AXES[col]} {nearest:g}")
     return rows, ", ".join(held)
 
 
@@ -65,8 +65,8 @@ def brier_surface_chart(
     Returns
     -------
     alt.LayerChart
-        A ``rect`` layer (darker = lower Brier score, i.e. better), a ring at the optimum
-        and its label.
+        A ``rect`` layer (darker = lower Brier score, i.e. better) and a ring (on a white
+        halo) at the optimum; the subtitle states the optimum and the settings held fixed.
 
     Examples
     --------
@@ -75,17 +75,19 @@ def brier_surface_chart(
     ...                   "brier": [0.70, 0.69, 0.68, 0.685]})
     >>> spec = brier_surface_chart(s).to_dict()
     >>> [layer["mark"]["type"] for layer in spec["layer"]]
-    ['rect', 'point', 'text']
+    ['rect', 'point', 'point']
     """
     require_columns(surface, [x, y, "brier"], where="brier_surface_chart")
     if best is None:
         best = surface.loc[surface["brier"].idxmin()].to_dict()
     rows, held = _slice_surface(surface, x, y, best)
     rows = rows[[x, y, "brier"]].reset_index(drop=True)
-    marker = pd.DataFrame({x: [best[x]], y: [best[y]], "label": [f"best: {best[x]:g}, {best[y]:g}"]})
+    marker = pd.DataFrame({x: [best[x]], y: [best[y]]})
     x_title, y_title = SURFACE_AXES.get(x, x), SURFACE_AXES.get(y, y)
     title = "Brier score on held-out plate appearances (lower is better)"
-    subtitle = f"{held} held at the optimum" if held else ""
+    subtitle = f"Ring: the optimum ({x_title.lower()} {best[x]:g}, {y_title.lower()} {best[y]:g})"
+    if held:
+        subtitle += f"; {held} held at the optimum"
     # ordinal axes: the grid is the set of values tried, shown as even cells
     heat = (
         alt.Chart(rows)
@@ -111,14 +113,16 @@ def brier_surface_chart(
         .mark_point(shape="circle", size=260, strokeWidth=3, color=WARNING, filled=False)
         .encode(x=alt.X(f"{x}:O"), y=alt.Y(f"{y}:O", sort="descending"))
     )
-    label = (
+    # a white halo under the ring keeps it visible on the darkest cells
+    halo = (
         alt.Chart(marker)
-        .mark_text(align="left", dx=14, dy=-10, color=INK, fontWeight="bold")
-        .encode(x=alt.X(f"{x}:O"), y=alt.Y(f"{y}:O", sort="descending"), text="label:N")
+        .mark_point(shape="circle", size=260, strokeWidth=6, color="white", filled=False)
+        .encode(x=alt.X(f"{x}:O"), y=alt.Y(f"{y}:O", sort="descending"))
     )
-    return alt.layer(heat, ring, label).properties(
+    chart = alt.layer(heat, halo, ring).properties(
         width=width, height=height, title=alt.Title(title, subtitle=subtitle, subtitleColor=MUTED)
     )
+    return style(chart)
 
 
 def skill_chart(skill: pd.DataFrame, *, width: int = 320) -> alt.LayerChart:
@@ -154,7 +158,7 @@ def skill_chart(skill: pd.DataFrame, *, width: int = 320) -> alt.LayerChart:
         )
     )
     zero = alt.Chart(pd.DataFrame({"skill": [0.0]})).mark_rule(color=MUTED).encode(x="skill:Q")
-    return alt.layer(bars, zero).properties(width=width, title="Skill of the fitted blend over each baseline")
+    return style(alt.layer(bars, zero).properties(width=width, title="Skill of the fitted blend over each baseline"))
 
 
 def reliability_chart(table: pd.DataFrame, *, columns: int = 3, size: int = 130) -> alt.FacetChart:
@@ -186,10 +190,10 @@ def reliability_chart(table: pd.DataFrame, *, columns: int = 3, size: int = 130)
     require_columns(table, ["outcome", "predicted", "observed", "n"], where="reliability_chart")
     rows = table[["outcome", "predicted", "observed", "n"]].reset_index(drop=True)
     order = list(pd.unique(rows["outcome"].to_numpy()))
-    base = alt.Chart().encode(x=alt.X("predicted:Q", title="Forecast", axis=alt.Axis(format=".0%", tickCount=4)))
+    base = alt.Chart().encode(x=alt.X("predicted:Q", title="Forecast", axis=alt.Axis(format=".1~%", tickCount=4)))
     diagonal = base.mark_line(color=MUTED, strokeDash=[4, 3]).encode(y=alt.Y("predicted:Q"))
     line = base.mark_line(color=SIDE_COLORS["matchup"], strokeWidth=1.2).encode(
-        y=alt.Y("observed:Q", title="Observed", axis=alt.Axis(format=".0%", tickCount=4))
+        y=alt.Y("observed:Q", title="Observed", axis=alt.Axis(format=".1~%", tickCount=4))
     )
     points = base.mark_circle(color=SIDE_COLORS["matchup"], opacity=0.9).encode(
         y=alt.Y("observed:Q"),
@@ -201,7 +205,7 @@ def reliability_chart(table: pd.DataFrame, *, columns: int = 3, size: int = 130)
             alt.Tooltip("n:Q", title="PAs"),
         ],
     )
-    return (
+    return style(
         alt.layer(diagonal, line, points, data=rows)
         .properties(width=size, height=size)
         .facet(facet=alt.Facet("outcome:N", title=None, sort=order), columns=columns)
@@ -238,7 +242,7 @@ def method_comparison_chart(table: pd.DataFrame, *, value: str = "brier", width:
     rows = table[["method", "basis", value]].reset_index(drop=True)
     bases = list(pd.unique(rows["basis"].to_numpy()))
     colors = [SIDE_COLORS["matchup"], SIDE_COLORS["batter"], SIDE_COLORS["pitcher"]]
-    return (
+    return style(
         alt.Chart(rows)
         .mark_point(filled=True, size=90)
         .encode(
