@@ -1,6 +1,9 @@
 """Chart builders: small tables in, altair charts out (no widgets, no I/O, no statistics)."""
 
+from ._calibration import brier_surface_chart, method_comparison_chart, reliability_chart, skill_chart
+from ._lineup import lineup_runs_chart
 from ._matchup import contact_heatmap_chart, outcome_bars_chart, run_context_chart, tier_shares_chart
+from ._options import option_ranking_chart
 from ._tables import require_columns
 from ._theme import SIDE_COLORS, SIDE_LABELS, SIDES, side_label, side_scale, style
 
@@ -8,12 +11,18 @@ __all__ = [
     "SIDES",
     "SIDE_COLORS",
     "SIDE_LABELS",
+    "brier_surface_chart",
     "contact_heatmap_chart",
+    "lineup_runs_chart",
+    "method_comparison_chart",
+    "option_ranking_chart",
     "outcome_bars_chart",
+    "reliability_chart",
     "require_columns",
     "run_context_chart",
     "side_label",
     "side_scale",
+    "skill_chart",
     "style",
     "tier_shares_chart",
 ]
