@@ -1,0 +1,337 @@
+"""Advancement tables: for each outcome, where the runners go and how many runs score.
+
+A table holds two dense arrays shaped ``(n_outcomes, 25, 25)``: ``T[o, s, t]`` is the
+probability that outcome ``o`` in state ``s`` leaves state ``t`` and ``R[o, s, t]`` the
+runs that score on that move. The Markov chain for an outcome distribution ``p`` is then
+``sum_o p[o] * T[o]``, which keeps every computation a small tensor product.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from functools import lru_cache
+from typing import Any, Mapping
+
+import numpy as np
+import pandas as pd
+
+from ..data import BASE_OUT_COLUMNS, OUTCOMES, DataError
+from ..data import ON_BASE as _ON_BASE
+from ._default_table import build_default_arrays
+from ._states import END, N_STATES, N_TRANSIENT
+
+#: Default minimum number of plate appearances in an (outcome, state) cell before an
+#: estimated table uses the data instead of the default row.
+MIN_COUNT: int = 30
+
+
+@dataclass(frozen=True, eq=False)
+class AdvancementTable:
+    """Transition probabilities and runs for each outcome from each base-out state.
+
+    Parameters
+    ----------
+    outcomes : tuple of str
+        Outcome names, one per row of ``transitions``; the first nine are ``OUTCOMES``.
+    transitions : ndarray, shape (n_outcomes, 25, 25)
+        ``transitions[o, s, t]``: probability of moving from state ``s`` to ``t``.
+    runs : ndarray, shape (n_outcomes, 25, 25)
+        Runs scored on that move (a mean when estimated from data).
+    on_base : tuple of str
+        Outcomes in which the batter reaches base (numerator of on-base percentage).
+    counts : ndarray of int, shape (n_outcomes, 24), optional
+        Plate appearances behind each (outcome, state) row when estimated from data.
+    from_data : ndarray of bool, shape (n_outcomes, 24), optional
+        Which rows came from data (the others fell back to the default).
+    n_skipped : int
+        Rows of the data left out because a base-out value was missing.
+    """
+
+    outcomes: tuple[str, ...]
+    transitions: np.ndarray
+    runs: np.ndarray
+    on_base: tuple[str, ...] = _ON_BASE
+    counts: np.ndarray | None = None
+    from_data: np.ndarray | None = None
+    n_skipped: int = 0
+
+    def __post_init__(self) -> None:
+        k = len(self.outcomes)
+        for name, arr in (("transitions", self.transitions), ("runs", self.runs)):
+            if arr.shape != (k, N_STATES, N_STATES):
+                msg = (
+                    f"AdvancementTable.{name} must be shaped ({k}, {N_STATES}, {N_STATES}) "
+                    f"for {k} outcomes; got {arr.shape}."
+                )
+                raise ValueError(msg)
+        sums = self.transitions[:, :N_TRANSIENT].sum(axis=2)
+        bad = np.argwhere(np.abs(sums - 1.0) > 1e-9)
+        if len(bad):
+            examples = ", ".join(f"{self.outcomes[o]} from state {s}" for o, s in bad[:5])
+            msg = (
+                f"AdvancementTable.transitions: {len(bad)} row(s) do not sum to 1 "
+                f"({examples}). Each (outcome, state) row must be a probability distribution."
+            )
+            raise ValueError(msg)
+        if (self.transitions < 0).any() or (self.runs < 0).any():
+            msg = "AdvancementTable: transitions and runs must be non-negative."
+            raise ValueError(msg)
+        step = (self.transitions * self.runs).sum(axis=2)[:, :N_TRANSIENT]
+        object.__setattr__(self, "_step_runs", step)
+        for arr in (self.transitions, self.runs, step):
+            arr.setflags(write=False)
+
+    @property
+    def expected_step_runs(self) -> np.ndarray:
+        """Expected runs on the play, ``sum_t T[o, s, t] R[o, s, t]``, shape (n_outcomes, 24)."""
+        return self._step_runs  # type: ignore[attr-defined]
+
+    @property
+    def on_base_mask(self) -> np.ndarray:
+        """Boolean mask over ``outcomes``: the batter reaches base."""
+        return np.array([o in self.on_base for o in self.outcomes])
+
+    def with_extra_rows(
+        self,
+        rows: Mapping[str, tuple[Any, Any]],
+        *,
+        on_base: tuple[str, ...] | list[str] = (),
+    ) -> AdvancementTable:
+        """Return a new table with extra outcome rows (for example tiered hits).
+
+        Parameters
+        ----------
+        rows : mapping of str to (T, R)
+            New outcome name -> ``(transitions, runs)``, each shaped ``(25, 25)``.
+            ``R`` may be ``None`` to count runs with the runs-scored identity.
+        on_base : sequence of str
+            Which of the new names count as reaching base.
+
+        Returns
+        -------
+        AdvancementTable
+
+        Examples
+        --------
+        >>> table = default_advancement()
+        >>> soft = table.row("1B")  # start from the single's row
+        >>> bigger = table.with_extra_rows({"1B_soft": soft}, on_base=["1B_soft"])
+        >>> bigger.outcomes[-1], bigger.transitions.shape
+        ('1B_soft', (10, 25, 25))
+        """
+        names = list(rows)
+        clash = [n for n in names if n in self.outcomes]
+        if clash:
+            msg = f"with_extra_rows: outcome name(s) {clash[:5]} already in the table; pick new names."
+            raise ValueError(msg)
+        unknown = [n for n in on_base if n not in names]
+        if unknown:
+            msg = f"with_extra_rows: on_base names {unknown[:5]} are not among the new rows {names[:5]}."
+            raise ValueError(msg)
+        new_t, new_r = [], []
+        for name in names:
+            t, r = rows[name]
+            t = np.array(t, dtype=float)
+            if t.shape != (N_STATES, N_STATES):
+                msg = f"with_extra_rows: transitions for {name!r} must be (25, 25); got {t.shape}."
+                raise ValueError(msg)
+            t[END] = 0.0
+            t[END, END] = 1.0
+            r = identity_runs() * (np.arange(N_STATES) < END) if r is None else np.array(r, dtype=float)
+            new_t.append(t)
+            new_r.append(r)
+        counts = self.counts
+        from_data = self.from_data
+        if counts is not None:
+            counts = np.vstack([counts, np.zeros((len(names), N_TRANSIENT), dtype=counts.dtype)])
+        if from_data is not None:
+            from_data = np.vstack([from_data, np.zeros((len(names), N_TRANSIENT), dtype=bool)])
+        return AdvancementTable(
+            outcomes=self.outcomes + tuple(names),
+            transitions=np.concatenate([self.transitions, np.stack(new_t)]),
+            runs=np.concatenate([self.runs, np.stack(new_r)]),
+            on_base=self.on_base + tuple(on_base),
+            counts=counts,
+            from_data=from_data,
+        )
+
+    def row(self, outcome: str) -> tuple[np.ndarray, np.ndarray]:
+        """Return copies of ``(T, R)`` for one outcome, each shaped ``(25, 25)``.
+
+        Examples
+        --------
+        >>> t, r = default_advancement().row("HR")
+        >>> float(r[0, 0])  # solo home run from empty bases, 0 outs
+        1.0
+        """
+        if outcome not in self.outcomes:
+            msg = f"outcome {outcome!r} is not in this table; it has {list(self.outcomes)}."
+            raise KeyError(msg)
+        i = self.outcomes.index(outcome)
+        return self.transitions[i].copy(), self.runs[i].copy()
+
+
+@lru_cache(maxsize=1)
+def identity_runs() -> np.ndarray:
+    """Runs implied by the runs-scored identity for each (from, to) pair, shape (25, 25).
+
+    ``runs = (runners before + outs before + 1) - (runners after + outs after)``
+    (common practice: every batter ends the play scored, out or on base). Pairs with a
+    negative value cannot happen and get 0; moves into the three-out state get 0 here.
+    """
+    from ._states import STATE_OUTS, STATE_RUNNERS
+
+    before = STATE_RUNNERS + STATE_OUTS + 1
+    after = STATE_RUNNERS + STATE_OUTS
+    runs = before[:, None] - after[None, :]
+    runs = np.clip(runs, 0, None).astype(float)
+    runs[:, END] = 0.0
+    runs.setflags(write=False)
+    return runs
+
+
+@lru_cache(maxsize=1)
+def default_advancement() -> AdvancementTable:
+    """Return the default advancement table (common-practice values for each outcome).
+
+    Returns
+    -------
+    AdvancementTable
+        Rows in ``OUTCOMES`` order.
+
+    Examples
+    --------
+    >>> table = default_advancement()
+    >>> table.outcomes[:3]
+    ('K', 'BB', 'HBP')
+    >>> float(table.transitions[3, 2].sum())  # single from runner on 2nd, 0 outs
+    1.0
+    """
+    trans, runs = build_default_arrays()
+    return AdvancementTable(outcomes=OUTCOMES, transitions=trans, runs=runs)
+
+
+def _frame_of(data: Any) -> pd.DataFrame:
+    frame = getattr(data, "frame", data)
+    if not isinstance(frame, pd.DataFrame):
+        msg = (
+            f"estimate_advancement expects a pandas DataFrame or loaded plate appearances "
+            f"(with .frame); got {type(data).__name__}."
+        )
+        raise TypeError(msg)
+    return frame
+
+
+def _check_range(frame: pd.DataFrame, column: str, values: np.ndarray, lo: int, hi: int) -> None:
+    bad = ~((values >= lo) & (values <= hi) & (values == np.round(values)))
+    if bad.any():
+        examples = ", ".join(map(str, frame[column].to_numpy()[bad][:5]))
+        msg = (
+            f"column {column!r} has {int(bad.sum())} value(s) outside the whole numbers "
+            f"{lo}-{hi} (e.g. {examples}). Fix or drop those rows before estimating advancement."
+        )
+        raise DataError(msg)
+
+
+def estimate_advancement(data: Any, *, min_count: int = MIN_COUNT) -> AdvancementTable:
+    """Estimate the advancement table from plate appearances with base-out columns.
+
+    Each (outcome, base-out state) row with at least ``min_count`` plate appearances uses
+    the observed share of each resulting state and the mean runs on those plays; rarer
+    rows fall back to :func:`default_advancement`. Rows missing any base-out value are
+    left out and counted in the returned table's ``n_skipped``.
+
+    Parameters
+    ----------
+    data : DataFrame or PlateAppearances
+        Needs ``outcome`` and the base-out columns ``outs_before``, ``bases_before``,
+        ``outs_after``, ``bases_after``, ``runs_on_play``.
+    min_count : int, default 30
+        Plate appearances needed in a cell before the data replaces the default.
+
+    Returns
+    -------
+    AdvancementTable
+        With ``counts`` (PAs per outcome and starting state) and ``from_data``.
+
+    Raises
+    ------
+    DataError
+        A column is missing, an outcome code is unknown, or a value is out of range.
+
+    Examples
+    --------
+    >>> rows = pd.DataFrame({"outcome": ["HR"] * 40, "outs_before": 0, "bases_before": 1,
+    ...                      "outs_after": 0, "bases_after": 0, "runs_on_play": 2})
+    >>> table = estimate_advancement(rows)
+    >>> int(table.counts[6, 1]), bool(table.from_data[6, 1])
+    (40, True)
+    """
+    if min_count < 1:
+        msg = f"min_count must be at least 1; got {min_count}."
+        raise ValueError(msg)
+    frame = _frame_of(data)
+    needed = ("outcome", *BASE_OUT_COLUMNS)
+    missing = [c for c in needed if c not in frame.columns]
+    if missing:
+        msg = (
+            f"estimate_advancement needs the column(s) {missing}; the data has "
+            f"{list(frame.columns)[:12]}. Map your column names when loading, or use "
+            f"default_advancement()."
+        )
+        raise DataError(msg)
+    cols = frame[list(needed)]
+    complete = cols.notna().all(axis=1).to_numpy()
+    cols = cols[complete]
+    codes = cols["outcome"].astype(str).to_numpy()
+    index = pd.Index(OUTCOMES).get_indexer(codes)
+    if (index < 0).any():
+        bad = pd.unique(codes[index < 0])
+        msg = (
+            f"column 'outcome' has {int((index < 0).sum())} row(s) with codes outside "
+            f"{list(OUTCOMES)} (e.g. {list(bad[:5])}). Map or drop them when loading."
+        )
+        raise DataError(msg)
+    nums = {c: cols[c].to_numpy(dtype=float) for c in BASE_OUT_COLUMNS}
+    _check_range(cols, "outs_before", nums["outs_before"], 0, 2)
+    _check_range(cols, "bases_before", nums["bases_before"], 0, 7)
+    _check_range(cols, "outs_after", nums["outs_after"], 0, 3)
+    _check_range(cols, "bases_after", nums["bases_after"], 0, 7)
+    _check_range(cols, "runs_on_play", nums["runs_on_play"], 0, 4)
+    backwards = nums["outs_after"] < nums["outs_before"]
+    if backwards.any():
+        msg = (
+            f"{int(backwards.sum())} row(s) have outs_after < outs_before. Outs never go "
+            f"down within an inning; fix or drop those rows."
+        )
+        raise DataError(msg)
+
+    src = (nums["outs_before"] * 8 + nums["bases_before"]).astype(int)
+    dst = np.where(
+        nums["outs_after"] >= 3, END, nums["outs_after"] * 8 + nums["bases_after"]
+    ).astype(int)
+    k = len(OUTCOMES)
+    flat = (index * N_STATES + src) * N_STATES + dst
+    cell_n = np.bincount(flat, minlength=k * N_STATES * N_STATES).reshape(k, N_STATES, N_STATES)
+    cell_runs = np.bincount(flat, weights=nums["runs_on_play"], minlength=cell_n.size).reshape(
+        cell_n.shape
+    )
+    row_n = cell_n.sum(axis=2)[:, :N_TRANSIENT]
+    use = row_n >= min_count
+
+    default = default_advancement()
+    trans = default.transitions.copy()
+    runs = default.runs.copy()
+    with np.errstate(invalid="ignore", divide="ignore"):
+        observed_t = cell_n[:, :N_TRANSIENT] / row_n[:, :, None]
+        observed_r = np.where(cell_n > 0, cell_runs / np.maximum(cell_n, 1), runs)
+    trans[:, :N_TRANSIENT] = np.where(use[:, :, None], observed_t, trans[:, :N_TRANSIENT])
+    runs[:, :N_TRANSIENT] = np.where(use[:, :, None], observed_r[:, :N_TRANSIENT], runs[:, :N_TRANSIENT])
+    return AdvancementTable(
+        outcomes=OUTCOMES,
+        transitions=trans,
+        runs=runs,
+        counts=row_n.astype(np.int64),
+        from_data=use,
+        n_skipped=int((~complete).sum()),
+    )
