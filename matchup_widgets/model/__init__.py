@@ -1,8 +1,19 @@
 """The matchup model: platoon-split distributions, shrinkage, blends, intervals, summaries."""
 
 from ._blend import METHODS, blend, linear_blend, odds_ratio_blend, two_stage_blend
+from ._calibrate_split import CELL_KEYS, collapse_cells, split_games, split_last_season
+from ._calibrate_surface import (
+    DEFAULT_PRIOR_GRID,
+    DEFAULT_WEIGHTS,
+    best_weight_closed_form,
+    linear_weight_surface,
+    quadratic_coefficients,
+    two_stage_surface,
+    weight_bootstrap,
+)
 from ._empirical_bayes import empirical_bayes_prior
 from ._intervals import INTERVAL_FLOOR, matchup_interval, posterior_draws
+from ._scores import brier_score, log_loss, reliability_table
 from ._shrink import shrink
 from ._summary import (
     FALLBACK_WOBA_SCALE,
@@ -13,6 +24,20 @@ from ._summary import (
 )
 
 __all__ = [
+    "CELL_KEYS",
+    "DEFAULT_PRIOR_GRID",
+    "DEFAULT_WEIGHTS",
+    "best_weight_closed_form",
+    "brier_score",
+    "collapse_cells",
+    "linear_weight_surface",
+    "log_loss",
+    "quadratic_coefficients",
+    "reliability_table",
+    "split_games",
+    "split_last_season",
+    "two_stage_surface",
+    "weight_bootstrap",
     "FALLBACK_WOBA_SCALE",
     "FALLBACK_WOBA_WEIGHTS",
     "INTERVAL_FLOOR",
