@@ -12,12 +12,14 @@ from ._advancement import (
     identity_runs,
 )
 from ._chain import run_expectancy, runs_distribution, runs_per_9, runs_per_inning
+from ._lineup import LineupRuns, lineup_runs, simulate_games, simulate_innings
 from ._values import linear_weights, situation, woba_weights
 from ._states import END, N_STATES, N_TRANSIENT, STATES, state_index, state_label
 
 __all__ = [
     "AdvancementTable",
     "END",
+    "LineupRuns",
     "MIN_COUNT",
     "N_STATES",
     "N_TRANSIENT",
@@ -26,10 +28,13 @@ __all__ = [
     "estimate_advancement",
     "identity_runs",
     "linear_weights",
+    "lineup_runs",
     "run_expectancy",
     "runs_distribution",
     "runs_per_9",
     "runs_per_inning",
+    "simulate_games",
+    "simulate_innings",
     "situation",
     "state_index",
     "state_label",
