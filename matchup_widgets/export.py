@@ -1,0 +1,199 @@
+"""Exports for presenting: the one-page matchup card (HTML, PNG, SVG) and CSV tables.
+
+Presentation only: the card's numbers come from the model's estimate, its picture from
+:func:`matchup_widgets.charts._card.matchup_card_chart`, and the files are written with
+vl-convert, offline (the HTML page carries the vega JavaScript inline, never from a CDN).
+"""
+
+from __future__ import annotations
+
+import base64
+import functools
+import html
+from collections.abc import Mapping
+from pathlib import Path
+import altair as alt
+import pandas as pd
+
+#: File formats a card can be written in, chosen by the file's suffix.
+CARD_FORMATS: tuple[str, ...] = ("html", "png", "svg")
+
+#: Printed at the foot of every card.
+CARD_CAUTION = (
+    "Estimates from samples of plate appearances, shown with their intervals; "
+    "not certainties, and not betting advice."
+)
+
+
+def card_format(path: str | Path) -> str:
+    """Return the card format named by ``path``'s suffix.
+
+    Examples
+    --------
+    >>> card_format("cards/today.PNG")
+    'png'
+    >>> card_format("card.pdf")
+    Traceback (most recent call last):
+    ...
+    ValueError: card file 'card.pdf' has suffix '.pdf'; use one of .html, .png, .svg.
+    """
+    suffix = Path(path).suffix.lower().lstrip(".")
+    if suffix not in CARD_FORMATS:
+        shown = "." + suffix if suffix else "no suffix"
+        choices = ", ".join("." + f for f in CARD_FORMATS)
+        msg = f"card file '{path}' has suffix '{shown}'; use one of {choices}."
+        raise ValueError(msg.replace("suffix 'no suffix'", "no suffix"))
+    return suffix
+
+
+@functools.lru_cache(maxsize=1)
+def _vega_bundle() -> str:
+    """The vega, vega-lite and vega-embed JavaScript, bundled once per process (~1 MB)."""
+    import vl_convert as vlc
+
+    return vlc.javascript_bundle()
+
+
+def _table_html(name: str, table: pd.DataFrame) -> str:
+    body = table.to_html(index=False, border=0, float_format=lambda v: f"{v:.4g}", classes="numbers")
+    return f"<h3>{html.escape(name.replace('_', ' ').capitalize())}</h3>\n{body}"
+
+
+def card_html(chart: alt.TopLevelMixin, *, title: str, tables: Mapping[str, pd.DataFrame] | None = None) -> str:
+    """Return a self-contained HTML page showing ``chart`` and the numbers behind it.
+
+    The vega JavaScript is inlined, so the page opens with no internet connection.
+
+    Parameters
+    ----------
+    chart : altair chart
+        The card.
+    title : str
+        The page title.
+    tables : mapping of str to DataFrame, optional
+        Tables printed under the card (the numbers behind it).
+
+    Returns
+    -------
+    str
+        The HTML document.
+    """
+    spec = chart.to_json(indent=None)
+    spec = spec.replace("</", "<\\/")  # keep the JSON from closing the script element
+    numbers = "\n".join(_table_html(k, v) for k, v in (tables or {}).items())
+    return f"""<!DOCTYPE html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<title>{html.escape(title)}</title>
+<style>
+body {{ font-family: sans-serif; color: #252b36; margin: 24px; }}
+table.numbers {{ border-collapse: collapse; font-size: 13px; margin-bottom: 16px; }}
+table.numbers th, table.numbers td {{ padding: 2px 10px; text-align: right; border-bottom: 1px solid #ebe8df; }}
+h3 {{ font-size: 14px; margin: 18px 0 4px; }}
+</style>
+<script>{_vega_bundle()}</script>
+</head>
+<body>
+<div id="card"></div>
+<script>vegaEmbed("#card", {spec}, {{"renderer": "svg", "actions": false}}).catch(console.error);</script>
+<details open><summary>Numbers behind the card</summary>
+{numbers}
+</details>
+</body>
+</html>
+"""
+
+
+def render_card(
+    chart: alt.TopLevelMixin,
+    fmt: str,
+    *,
+    title: str = "Matchup card",
+    tables: Mapping[str, pd.DataFrame] | None = None,
+    ppi: float = 144,
+) -> bytes | str:
+    """Render the card as ``"html"`` (str), ``"svg"`` (str) or ``"png"`` (bytes), offline.
+
+    Examples
+    --------
+    >>> c = alt.Chart(pd.DataFrame({"a": [1]})).mark_bar().encode(x="a:Q")
+    >>> render_card(c, "png", ppi=72)[:8] == b"\\x89PNG\\r\\n\\x1a\\n"
+    True
+    """
+    import vl_convert as vlc
+
+    if fmt == "html":
+        return card_html(chart, title=title, tables=tables)
+    if fmt == "svg":
+        return vlc.vegalite_to_svg(chart.to_dict())
+    if fmt == "png":
+        return vlc.vegalite_to_png(chart.to_dict(), ppi=ppi)
+    choices = ", ".join(CARD_FORMATS)
+    msg = f"fmt must be one of {choices}; got {fmt!r}."
+    raise ValueError(msg)
+
+
+def write_card(
+    chart: alt.TopLevelMixin,
+    path: str | Path,
+    *,
+    title: str = "Matchup card",
+    tables: Mapping[str, pd.DataFrame] | None = None,
+) -> Path:
+    """Write the card to ``path`` in the format its suffix names (.html, .png, .svg).
+
+    Returns
+    -------
+    Path
+        The file written.
+    """
+    out = Path(path)
+    fmt = card_format(out)
+    rendered = render_card(chart, fmt, title=title, tables=tables)
+    out.parent.mkdir(parents=True, exist_ok=True)
+    if isinstance(rendered, bytes):
+        out.write_bytes(rendered)
+    else:
+        out.write_text(rendered, encoding="utf-8")
+    return out
+
+
+def write_tables(tables: Mapping[str, pd.DataFrame], folder: str | Path, *, prefix: str = "") -> list[Path]:
+    """Write each table to ``folder/<prefix><name>.csv``; return the paths.
+
+    Examples
+    --------
+    >>> import tempfile
+    >>> with tempfile.TemporaryDirectory() as d:
+    ...     [p.name for p in write_tables({"runs": pd.DataFrame({"a": [1]})}, d, prefix="lineup_")]
+    ['lineup_runs.csv']
+    """
+    root = Path(folder)
+    root.mkdir(parents=True, exist_ok=True)
+    paths = []
+    for name, table in tables.items():
+        path = root / f"{prefix}{name}.csv"
+        table.to_csv(path, index=False)
+        paths.append(path)
+    return paths
+
+
+def csv_links_html(tables: Mapping[str, pd.DataFrame], *, prefix: str = "") -> str:
+    """HTML links that download each table as CSV (data URLs: no server round trip).
+
+    Examples
+    --------
+    >>> 'download="x_t.csv"' in csv_links_html({"t": pd.DataFrame({"a": [1]})}, prefix="x_")
+    True
+    """
+    links = []
+    for name, table in tables.items():
+        data = base64.b64encode(table.to_csv(index=False).encode("utf-8")).decode("ascii")
+        fname = html.escape(f"{prefix}{name}.csv")
+        links.append(
+            f'<a download="{fname}" href="data:text/csv;base64,{data}" '
+            f'style="margin-right:1em">{html.escape(name.replace("_", " "))} (CSV)</a>'
+        )
+    return "<div>Numbers behind the charts: " + " ".join(links) + "</div>"
+
