@@ -15,7 +15,7 @@ from typing import Any, Mapping
 import numpy as np
 import pandas as pd
 
-from ..data import BASE_OUT_COLUMNS, OUTCOMES, DataError
+from ..data import OUTCOMES, DataError
 from ..data import ON_BASE as _ON_BASE
 from ._default_table import build_default_arrays
 from ._states import END, N_STATES, N_TRANSIENT
@@ -211,26 +211,68 @@ def default_advancement() -> AdvancementTable:
     return AdvancementTable(outcomes=OUTCOMES, transitions=trans, runs=runs)
 
 
-def _frame_of(data: Any) -> pd.DataFrame:
-    frame = getattr(data, "frame", data)
-    if not isinstance(frame, pd.DataFrame):
+_CELL_KEYS: tuple[str, ...] = ("outcome", "outs_before", "bases_before", "outs_after", "bases_after")
+
+
+def _cells(data: Any) -> tuple[pd.DataFrame, int]:
+    """Count plays per (outcome, before, after) cell: columns of ``_CELL_KEYS`` + n, runs.
+
+    A DataFrame is counted in pandas; loaded plate appearances or an ibis table are
+    counted by their engine (only the small cell table comes back). Rows with a missing
+    base-out value are left out; their number is returned beside the cells.
+    """
+    table = getattr(data, "table", data)
+    is_frame = isinstance(table, pd.DataFrame)
+    if not is_frame and not hasattr(table, "group_by"):
         msg = (
-            f"estimate_advancement expects a pandas DataFrame or loaded plate appearances "
-            f"(with .frame); got {type(data).__name__}."
+            f"estimate_advancement expects a pandas DataFrame, loaded plate appearances or an "
+            f"ibis table; got {type(data).__name__}."
         )
         raise TypeError(msg)
-    return frame
-
-
-def _check_range(frame: pd.DataFrame, column: str, values: np.ndarray, lo: int, hi: int) -> None:
-    bad = ~((values >= lo) & (values <= hi) & (values == np.round(values)))
-    if bad.any():
-        examples = ", ".join(map(str, frame[column].to_numpy()[bad][:5]))
+    columns = list(table.columns)
+    needed = (*_CELL_KEYS, "runs_on_play")
+    missing = [c for c in needed if c not in columns]
+    if missing:
         msg = (
-            f"column {column!r} has {int(bad.sum())} value(s) outside the whole numbers "
-            f"{lo}-{hi} (e.g. {examples}). Fix or drop those rows before estimating advancement."
+            f"estimate_advancement needs the column(s) {missing}; the data has "
+            f"{columns[:12]}. Map your column names when loading, or use default_advancement()."
         )
         raise DataError(msg)
+    if is_frame:
+        rows = table[list(needed)]
+        complete = rows.notna().all(axis=1)
+        rows = rows[complete]
+        cells = rows[list(_CELL_KEYS)].astype({"outcome": str}).assign(
+            n=1, runs=rows["runs_on_play"].to_numpy(dtype=float)
+        )
+        return cells, int((~complete).sum())
+    n_all = int(table.count().execute())
+    kept = table.filter([table[c].notnull() for c in needed])
+    cells = (
+        kept.group_by(list(_CELL_KEYS))
+        .aggregate(
+            n=kept.count(),
+            runs=kept.runs_on_play.sum(),
+            runs_min=kept.runs_on_play.min(),
+            runs_max=kept.runs_on_play.max(),
+        )
+        .to_pandas()
+    )
+    return cells, n_all - int(cells["n"].sum())
+
+
+def _check_range(cells: pd.DataFrame, column: str, lo: int, hi: int) -> np.ndarray:
+    values = cells[column].to_numpy(dtype=float)
+    bad = ~((values >= lo) & (values <= hi) & (values == np.round(values)))
+    if bad.any():
+        examples = ", ".join(map(str, pd.unique(values[bad])[:5]))
+        msg = (
+            f"column {column!r} has {int(cells['n'].to_numpy()[bad].sum())} row(s) outside the "
+            f"whole numbers {lo}-{hi} (e.g. {examples}). Fix or drop those rows before "
+            f"estimating advancement."
+        )
+        raise DataError(msg)
+    return values.astype(int)
 
 
 def estimate_advancement(data: Any, *, min_count: int = MIN_COUNT) -> AdvancementTable:
@@ -239,11 +281,12 @@ def estimate_advancement(data: Any, *, min_count: int = MIN_COUNT) -> Advancemen
     Each (outcome, base-out state) row with at least ``min_count`` plate appearances uses
     the observed share of each resulting state and the mean runs on those plays; rarer
     rows fall back to :func:`default_advancement`. Rows missing any base-out value are
-    left out and counted in the returned table's ``n_skipped``.
+    left out and counted in the returned table's ``n_skipped``. Loaded plate appearances
+    and ibis tables are counted by their engine.
 
     Parameters
     ----------
-    data : DataFrame or PlateAppearances
+    data : DataFrame, PlateAppearances or ibis.Table
         Needs ``outcome`` and the base-out columns ``outs_before``, ``bases_before``,
         ``outs_after``, ``bases_after``, ``runs_on_play``.
     min_count : int, default 30
@@ -270,52 +313,40 @@ def estimate_advancement(data: Any, *, min_count: int = MIN_COUNT) -> Advancemen
     if min_count < 1:
         msg = f"min_count must be at least 1; got {min_count}."
         raise ValueError(msg)
-    frame = _frame_of(data)
-    needed = ("outcome", *BASE_OUT_COLUMNS)
-    missing = [c for c in needed if c not in frame.columns]
-    if missing:
-        msg = (
-            f"estimate_advancement needs the column(s) {missing}; the data has "
-            f"{list(frame.columns)[:12]}. Map your column names when loading, or use "
-            f"default_advancement()."
-        )
-        raise DataError(msg)
-    cols = frame[list(needed)]
-    complete = cols.notna().all(axis=1).to_numpy()
-    cols = cols[complete]
-    codes = cols["outcome"].astype(str).to_numpy()
+    cells, n_skipped = _cells(data)
+    weight = cells["n"].to_numpy(dtype=float)
+    codes = cells["outcome"].astype(str).to_numpy()
     index = pd.Index(OUTCOMES).get_indexer(codes)
     if (index < 0).any():
         bad = pd.unique(codes[index < 0])
         msg = (
-            f"column 'outcome' has {int((index < 0).sum())} row(s) with codes outside "
+            f"column 'outcome' has {int(weight[index < 0].sum())} row(s) with codes outside "
             f"{list(OUTCOMES)} (e.g. {list(bad[:5])}). Map or drop them when loading."
         )
         raise DataError(msg)
-    nums = {c: cols[c].to_numpy(dtype=float) for c in BASE_OUT_COLUMNS}
-    _check_range(cols, "outs_before", nums["outs_before"], 0, 2)
-    _check_range(cols, "bases_before", nums["bases_before"], 0, 7)
-    _check_range(cols, "outs_after", nums["outs_after"], 0, 3)
-    _check_range(cols, "bases_after", nums["bases_after"], 0, 7)
-    _check_range(cols, "runs_on_play", nums["runs_on_play"], 0, 4)
-    backwards = nums["outs_after"] < nums["outs_before"]
+    outs_b = _check_range(cells, "outs_before", 0, 2)
+    bases_b = _check_range(cells, "bases_before", 0, 7)
+    outs_a = _check_range(cells, "outs_after", 0, 3)
+    bases_a = _check_range(cells, "bases_after", 0, 7)
+    runs_sum = cells["runs"].to_numpy(dtype=float)
+    for extreme in ("runs_min", "runs_max"):  # per-row extremes of each engine-side cell
+        per_row = cells[extreme] if extreme in cells else cells["runs"]
+        _check_range(cells.assign(runs_on_play=per_row), "runs_on_play", 0, 4)
+    backwards = outs_a < outs_b
     if backwards.any():
         msg = (
-            f"{int(backwards.sum())} row(s) have outs_after < outs_before. Outs never go "
-            f"down within an inning; fix or drop those rows."
+            f"{int(weight[backwards].sum())} row(s) have outs_after < outs_before. Outs never "
+            f"go down within an inning; fix or drop those rows."
         )
         raise DataError(msg)
 
-    src = (nums["outs_before"] * 8 + nums["bases_before"]).astype(int)
-    dst = np.where(
-        nums["outs_after"] >= 3, END, nums["outs_after"] * 8 + nums["bases_after"]
-    ).astype(int)
+    src = outs_b * 8 + bases_b
+    dst = np.where(outs_a >= 3, END, outs_a * 8 + bases_a)
     k = len(OUTCOMES)
     flat = (index * N_STATES + src) * N_STATES + dst
-    cell_n = np.bincount(flat, minlength=k * N_STATES * N_STATES).reshape(k, N_STATES, N_STATES)
-    cell_runs = np.bincount(flat, weights=nums["runs_on_play"], minlength=cell_n.size).reshape(
-        cell_n.shape
-    )
+    size = k * N_STATES * N_STATES
+    cell_n = np.bincount(flat, weights=weight, minlength=size).reshape(k, N_STATES, N_STATES)
+    cell_runs = np.bincount(flat, weights=runs_sum, minlength=size).reshape(cell_n.shape)
     row_n = cell_n.sum(axis=2)[:, :N_TRANSIENT]
     use = row_n >= min_count
 
@@ -331,7 +362,7 @@ def estimate_advancement(data: Any, *, min_count: int = MIN_COUNT) -> Advancemen
         outcomes=OUTCOMES,
         transitions=trans,
         runs=runs,
-        counts=row_n.astype(np.int64),
+        counts=np.rint(row_n).astype(np.int64),
         from_data=use,
-        n_skipped=int((~complete).sum()),
+        n_skipped=n_skipped,
     )
