@@ -37,6 +37,13 @@ def _slice_surface(surface: pd.DataFrame, x: str, y: str, best: Mapping[str, flo
     return rows, ", ".join(held)
 
 
+def _ticks(values: pd.Series, most: int = 11) -> list[float]:
+    """At most ``most`` evenly spaced grid values to label (a 101-step weight grid has 101)."""
+    grid = sorted(pd.unique(values.to_numpy()).tolist())
+    step = -(-len(grid) // most)
+    return grid[::step]
+
+
 def brier_surface_chart(
     surface: pd.DataFrame,
     *,
@@ -82,6 +89,7 @@ def brier_surface_chart(
         best = surface.loc[surface["brier"].idxmin()].to_dict()
     rows, held = _slice_surface(surface, x, y, best)
     rows = rows[[x, y, "brier"]].reset_index(drop=True)
+    x_ticks, y_ticks = _ticks(rows[x]), _ticks(rows[y])
     marker = pd.DataFrame({x: [best[x]], y: [best[y]]})
     x_title, y_title = SURFACE_AXES.get(x, x), SURFACE_AXES.get(y, y)
     title = "Brier score on held-out plate appearances (lower is better)"
@@ -93,8 +101,8 @@ def brier_surface_chart(
         alt.Chart(rows)
         .mark_rect()
         .encode(
-            x=alt.X(f"{x}:O", title=x_title, axis=alt.Axis(format="~g", labelAngle=0)),
-            y=alt.Y(f"{y}:O", title=y_title, sort="descending", axis=alt.Axis(format="~g")),
+            x=alt.X(f"{x}:O", title=x_title, axis=alt.Axis(format="~g", labelAngle=0, values=x_ticks)),
+            y=alt.Y(f"{y}:O", title=y_title, sort="descending", axis=alt.Axis(format="~g", values=y_ticks)),
             color=alt.Color(
                 "brier:Q",
                 title="Brier score",
@@ -167,8 +175,9 @@ def reliability_chart(table: pd.DataFrame, *, columns: int = 3, size: int = 130)
     Parameters
     ----------
     table : DataFrame
-        One row per outcome x bin: columns ``outcome``, ``predicted`` (mean forecast in the
-        bin), ``observed`` (share of held-out PAs with that outcome) and ``n`` (PAs in the bin).
+        One row per outcome x bin, as :func:`matchup_widgets.model.reliability_table` returns
+        it: ``outcome``, ``mean_predicted`` (mean forecast in the bin), ``observed_rate``
+        (share of held-out PAs with that outcome) and ``n_pa`` (PAs in the bin).
     columns : int
         Panels per row.
     size : int
@@ -181,14 +190,17 @@ def reliability_chart(table: pd.DataFrame, *, columns: int = 3, size: int = 130)
 
     Examples
     --------
-    >>> t = pd.DataFrame({"outcome": ["K", "K"], "predicted": [0.2, 0.3],
-    ...                   "observed": [0.21, 0.28], "n": [50, 40]})
+    >>> t = pd.DataFrame({"outcome": ["K", "K"], "mean_predicted": [0.2, 0.3],
+    ...                   "observed_rate": [0.21, 0.28], "n_pa": [50, 40]})
     >>> spec = reliability_chart(t).to_dict()
     >>> spec["facet"]["field"], len(spec["spec"]["layer"])
     ('outcome', 3)
     """
-    require_columns(table, ["outcome", "predicted", "observed", "n"], where="reliability_chart")
-    rows = table[["outcome", "predicted", "observed", "n"]].reset_index(drop=True)
+    cols = ["outcome", "mean_predicted", "observed_rate", "n_pa"]
+    require_columns(table, cols, where="reliability_chart")
+    rows = table[cols].rename(columns={"mean_predicted": "predicted", "observed_rate": "observed", "n_pa": "n"})
+    rows = rows.reset_index(drop=True)
+    rows["outcome"] = rows["outcome"].astype(str)
     order = list(pd.unique(rows["outcome"].to_numpy()))
     base = alt.Chart().encode(x=alt.X("predicted:Q", title="Forecast", axis=alt.Axis(format=".1~%", tickCount=4)))
     diagonal = base.mark_line(color=MUTED, strokeDash=[4, 3]).encode(y=alt.Y("predicted:Q"))

@@ -67,6 +67,14 @@ def test_surface_uses_given_best_and_nearest_slice(surface):
     assert _layer_values(spec, 2) == [{"pitcher_weight": 0.7, "batter_prior_pa": 100}]
 
 
+def test_surface_labels_at_most_eleven_grid_values():
+    grid = pd.MultiIndex.from_product([np.linspace(0, 1, 101), [0, 50]], names=["pitcher_weight", "batter_prior_pa"])
+    s = grid.to_frame(index=False).assign(brier=0.7)
+    spec = brier_surface_chart(s).to_dict()
+    assert len(spec["layer"][0]["encoding"]["x"]["axis"]["values"]) == 11
+    assert len(_layer_values(spec, 0)) == 202
+
+
 def test_surface_other_axes(surface):
     spec = brier_surface_chart(surface, x="batter_prior_pa", y="pitcher_prior_pa").to_dict()
     assert spec["layer"][0]["encoding"]["x"]["title"] == "Batter prior (PA)"
@@ -82,9 +90,9 @@ def test_reliability_facets_each_outcome_with_diagonal():
     t = pd.DataFrame(
         {
             "outcome": ["K"] * 3 + ["HR"] * 3,
-            "predicted": [0.1, 0.2, 0.3, 0.01, 0.02, 0.03],
-            "observed": [0.12, 0.19, 0.31, 0.012, 0.02, 0.028],
-            "n": [10, 20, 30, 5, 6, 7],
+            "mean_predicted": [0.1, 0.2, 0.3, 0.01, 0.02, 0.03],
+            "observed_rate": [0.12, 0.19, 0.31, 0.012, 0.02, 0.028],
+            "n_pa": [10, 20, 30, 5, 6, 7],
         }
     )
     spec = reliability_chart(t).to_dict()
@@ -140,7 +148,7 @@ def test_panel_charts_render_offline(surface):
     """Every builder's spec renders to SVG with vl-convert (no browser, no network)."""
     charts = [
         brier_surface_chart(surface),
-        reliability_chart(pd.DataFrame({"outcome": ["K"], "predicted": [0.2], "observed": [0.21], "n": [9]})),
+        reliability_chart(pd.DataFrame({"outcome": ["K"], "mean_predicted": [0.2], "observed_rate": [0.21], "n_pa": [9]})),
         option_ranking_chart(pd.DataFrame({"name": ["A"], "value": [0.0], "lo": [-0.1], "hi": [0.1]})),
         lineup_runs_chart(pd.DataFrame({"lineup": ["a"], "runs": ["0"], "probability": [1.0]})),
     ]
