@@ -1,6 +1,7 @@
 """The matchup model: platoon-split distributions, shrinkage, blends, intervals, summaries."""
 
 from ._blend import METHODS, blend, linear_blend, odds_ratio_blend, two_stage_blend
+from ._calibrate import CalibrationResult, calibrate
 from ._calibrate_split import CELL_KEYS, collapse_cells, split_games, split_last_season
 from ._calibrate_surface import (
     DEFAULT_PRIOR_GRID,
@@ -24,6 +25,8 @@ from ._summary import (
 )
 
 __all__ = [
+    "CalibrationResult",
+    "calibrate",
     "CELL_KEYS",
     "DEFAULT_PRIOR_GRID",
     "DEFAULT_WEIGHTS",

@@ -152,7 +152,7 @@ def collapse_cells(
             f"{list(frame.columns)[:12]}. Load it with matchup_widgets.data.load_pas."
         )
         raise DataError(msg)
-    codes = pd.Categorical(frame["outcome"], categories=list(OUTCOMES)).codes.astype(np.intp)
+    codes = pd.Index(list(OUTCOMES)).get_indexer(frame["outcome"].astype(str)).astype(np.intp)
     bad = np.flatnonzero(codes < 0)
     if bad.size:
         examples = pd.unique(frame["outcome"].to_numpy()[bad])[:5]

@@ -1,0 +1,429 @@
+"""Choose the pitcher weight and the prior sizes from held-out plate appearances.
+
+:func:`calibrate` splits the table honestly (whole games held out, or the last season, or a
+separate table), builds each side's outcome counts and the league baselines from the fitting
+rows only, collapses the held-out PAs into batter x pitcher x split cells and searches the
+Brier surface in closed form (see :mod:`._calibrate_surface`). It also scores the baselines,
+the other blend methods, a bootstrap interval for the weight and a reliability table.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Any
+
+import numpy as np
+import pandas as pd
+
+from ..data import OUTCOMES, DataError, league_counts, load_pas, outcome_counts
+from ._blend import linear_blend, odds_ratio_blend, two_stage_blend
+from ._calibrate_split import CELL_KEYS, collapse_cells, split_games, split_last_season
+from ._calibrate_surface import (
+    DEFAULT_PRIOR_GRID,
+    DEFAULT_WEIGHTS,
+    _best_pairs,
+    _check_grid,
+    _linear_coefficients,
+    _shrunk_grid,
+    _surface_frame,
+    _two_stage_coefficients,
+    _two_stage_grid,
+    weight_bootstrap,
+)
+from ._scores import brier_score, log_loss, reliability_table
+
+__all__ = ["CalibrationResult", "calibrate"]
+
+#: Where each side's fitting distributions come from: observed outcomes, or contact-expected
+#: outcomes (balls in play replaced by their modelled outcome probabilities).
+_BASES: tuple[str, ...] = ("observed", "contact")
+
+_SPLIT_KEYS = ["batter_hand", "pitcher_hand"]
+_BASELINES = ("league", "batter_only", "pitcher_only", "even_blend")
+
+
+@dataclass(frozen=True)
+class CalibrationResult:
+    """What :func:`calibrate` found. All scores are on held-out PAs (lower is better).
+
+    Attributes
+    ----------
+    pitcher_weight : float
+        Best linear-blend pitcher weight (closed form, not rounded to the grid).
+    batter_prior_pa, pitcher_prior_pa : float
+        Best prior sizes from the grid.
+    brier, log_loss : float
+        Held-out scores of the linear blend at those settings.
+    brier_baselines : dict
+        Brier of ``league`` (league split distribution only), ``batter_only`` (w = 0),
+        ``pitcher_only`` (w = 1) and ``even_blend`` (w = 0.5), each at its own best priors.
+    skill_scores : dict
+        ``1 - brier / baseline`` for each baseline (share of the baseline's error removed).
+    weight_interval : tuple of float
+        Bootstrap interval of the weight from resampling held-out games.
+    interval_level : float
+        Coverage of that interval.
+    two_stage : dict
+        Best ``first_weight``, ``in_play_weight``, prior sizes, ``brier`` and ``log_loss`` of the
+        two-stage blend.
+    methods : pandas.DataFrame
+        One row per blend method: ``method``, ``brier``, ``log_loss``, ``batter_prior_pa``,
+        ``pitcher_prior_pa``, ``settings``.
+    surface : pandas.DataFrame
+        ``pitcher_weight``, ``batter_prior_pa``, ``pitcher_prior_pa``, ``brier`` over the grid.
+    best_by_priors : pandas.DataFrame
+        Closed-form best weight and its Brier for every prior pair.
+    reliability : pandas.DataFrame
+        Predicted-probability bins against observed frequency per outcome, at the best settings.
+    n_fit_pa, n_holdout_pa, n_cells : int
+        Fitting PAs, held-out PAs, and the held-out cells they collapse into.
+    split : str
+        ``"games"``, ``"season-forward"`` or ``"separate"``.
+    basis : str
+        ``"observed"`` or ``"contact"``.
+    """
+
+    pitcher_weight: float
+    batter_prior_pa: float
+    pitcher_prior_pa: float
+    brier: float
+    log_loss: float
+    brier_baselines: dict[str, float]
+    skill_scores: dict[str, float]
+    weight_interval: tuple[float, float]
+    interval_level: float
+    two_stage: dict[str, float]
+    methods: pd.DataFrame = field(repr=False)
+    surface: pd.DataFrame = field(repr=False)
+    best_by_priors: pd.DataFrame = field(repr=False)
+    reliability: pd.DataFrame = field(repr=False)
+    n_fit_pa: int
+    n_holdout_pa: int
+    n_cells: int
+    split: str
+    basis: str
+
+    def to_dict(self) -> dict[str, Any]:
+        """Plain JSON-ready dict: the ``fit`` command's keys first, then the extras."""
+        out = {
+            "pitcher_weight": self.pitcher_weight,
+            "batter_prior_pa": self.batter_prior_pa,
+            "pitcher_prior_pa": self.pitcher_prior_pa,
+            "brier": self.brier,
+            "log_loss": self.log_loss,
+            "brier_baselines": dict(self.brier_baselines),
+            "n_fit_pa": self.n_fit_pa,
+            "n_holdout_pa": self.n_holdout_pa,
+            "surface": self.surface.to_dict(orient="records"),
+            "skill_scores": dict(self.skill_scores),
+            "weight_interval": list(self.weight_interval),
+            "interval_level": self.interval_level,
+            "two_stage": dict(self.two_stage),
+            "methods": self.methods.to_dict(orient="records"),
+            "reliability": self.reliability.to_dict(orient="records"),
+            "n_cells": self.n_cells,
+            "split": self.split,
+            "basis": self.basis,
+        }
+        return _plain(out)
+
+
+def _plain(value: Any) -> Any:
+    """numpy scalars to Python numbers, recursively."""
+    if isinstance(value, dict):
+        return {str(k): _plain(v) for k, v in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [_plain(v) for v in value]
+    if isinstance(value, np.generic):
+        return value.item()
+    return value
+
+
+def _as_pas(source: Any, name: str):
+    """A PlateAppearances as given, or loaded from anything load_pas accepts."""
+    if hasattr(source, "table") and hasattr(source, "frame"):
+        return source
+    try:
+        return load_pas(source)
+    except DataError as exc:
+        msg = f"{name}: {exc}"
+        raise DataError(msg) from None
+
+
+def _side_counts(fit: Any, role: str, basis: str) -> pd.DataFrame:
+    """Fitting counts per player and split for one side (observed or contact basis)."""
+    if basis == "contact":
+        from ..contact import contact_outcome_counts
+
+        return contact_outcome_counts(fit, role=role)
+    return outcome_counts(fit, role=role)
+
+
+def _aligned(cells: pd.DataFrame, counts: pd.DataFrame, id_column: str) -> np.ndarray:
+    """Each cell's row of ``counts`` (player x split), zeros for players without fitting PAs."""
+    right = counts.rename(columns={"player_id": id_column})[[id_column, *_SPLIT_KEYS, *OUTCOMES]]
+    right = right.astype({id_column: str, "batter_hand": str, "pitcher_hand": str})
+    left = cells[[id_column, *_SPLIT_KEYS]].astype(str)
+    merged = left.merge(right, on=[id_column, *_SPLIT_KEYS], how="left", validate="many_to_one")
+    return merged[list(OUTCOMES)].to_numpy(dtype=float, na_value=0.0)
+
+
+def _league_by_cell(cells: pd.DataFrame, league: pd.DataFrame) -> np.ndarray:
+    """League distribution of each cell's platoon split (``league`` from ``league_counts``)."""
+    league = league.astype({"batter_hand": str, "pitcher_hand": str})
+    merged = cells[_SPLIT_KEYS].astype(str).merge(league, on=_SPLIT_KEYS, how="left")
+    arr = merged[list(OUTCOMES)].to_numpy(dtype=float, na_value=0.0)
+    missing = arr.sum(axis=1) == 0
+    if missing.any():
+        # a split absent from the fitting rows falls back to the whole league
+        arr[missing] = league[list(OUTCOMES)].to_numpy(dtype=float).sum(axis=0)
+    return arr / arr.sum(axis=1, keepdims=True)
+
+
+def _split(pas, score, holdout_share: float, seed: int, season_forward: bool):
+    """Return (fit source for the count functions, fit frame, held-out frame, split name)."""
+    frame = pas.frame
+    if score is not None:
+        return pas, frame, score.frame, "separate"
+    if season_forward:
+        if "season" not in frame.columns:
+            msg = "season-forward split needs a 'season' column (or game_date); load the table with load_pas."
+            raise DataError(msg)
+        held = split_last_season(frame["season"].to_numpy())
+        name = "season-forward"
+    else:
+        held = split_games(frame["game_id"].to_numpy(), holdout_share=holdout_share, seed=seed)
+        name = "games"
+    return None, frame.loc[~held], frame.loc[held], name
+
+
+def calibrate(
+    pas: Any,
+    *,
+    holdout_share: float = 0.25,
+    seed: int = 0,
+    score: Any = None,
+    season_forward: bool = False,
+    priors=DEFAULT_PRIOR_GRID,
+    batter_priors=None,
+    pitcher_priors=None,
+    weights=DEFAULT_WEIGHTS,
+    basis: str = "observed",
+    n_boot: int = 200,
+    interval_level: float = 0.9,
+    n_bins: int = 10,
+    progress: bool = True,
+) -> CalibrationResult:
+    """Fit the linear blend's pitcher weight and both prior sizes on held-out PAs.
+
+    Parameters
+    ----------
+    pas : PlateAppearances or anything :func:`~matchup_widgets.data.load_pas` accepts
+        The table to fit on.
+    holdout_share : float, default 0.25
+        Share of whole games held out for scoring (random, seeded).
+    seed : int, default 0
+        Seed of the game split and of the bootstrap.
+    score : PlateAppearances or source, optional
+        A separate table to score on; then all of ``pas`` is used for fitting.
+    season_forward : bool, default False
+        Fit on the earlier seasons and score on the last one instead of a random share.
+    priors : sequence of float, default (0, 25, 50, 100, 200, 400, 800)
+        Prior sizes (PAs) searched for both sides, unless ``batter_priors`` or
+        ``pitcher_priors`` is given.
+    weights : sequence of float, default 0, 0.01, ..., 1
+        Pitcher weights of the surface and of the two-stage grid.
+    basis : {"observed", "contact"}, default "observed"
+        Fitting distributions from observed outcomes, or contact-expected ones.
+    n_boot : int, default 200
+        Bootstrap replicates for the weight interval (games resampled).
+    interval_level : float, default 0.9
+        Coverage of the weight interval.
+    n_bins : int, default 10
+        Bins per outcome of the reliability table.
+    progress : bool, default True
+        Report progress with tqdm.auto (a bar in a notebook, a line in a terminal).
+
+    Returns
+    -------
+    CalibrationResult
+
+    Raises
+    ------
+    DataError
+        If the table cannot be split or the held-out part is empty.
+    ValueError
+        On a bad option.
+
+    Examples
+    --------
+    >>> from matchup_widgets.data.demo import make_demo_league  # doctest: +SKIP
+    >>> result = calibrate(make_demo_league(seed=1), progress=False)  # doctest: +SKIP
+    >>> 0 <= result.pitcher_weight <= 1  # doctest: +SKIP
+    True
+    """
+    from tqdm.auto import tqdm
+
+    if basis not in _BASES:
+        msg = f"basis must be one of {list(_BASES)}; got {basis!r}."
+        raise ValueError(msg)
+    if not 0.0 < float(interval_level) < 1.0:
+        msg = f"interval_level must lie strictly between 0 and 1; got {interval_level}."
+        raise ValueError(msg)
+    bp = _check_grid(priors if batter_priors is None else batter_priors, "batter_priors")
+    pp = _check_grid(priors if pitcher_priors is None else pitcher_priors, "pitcher_priors")
+    w_grid = _check_grid(weights, "weights", upper=1.0)
+    pas = _as_pas(pas, "data")
+    score = None if score is None else _as_pas(score, "score")
+
+    steps = tqdm(total=7, desc="fit", disable=not progress, unit="step")
+    try:
+        steps.set_postfix_str("splitting")
+        fit_source, fit_frame, held_frame, split_name = _split(pas, score, holdout_share, seed, season_forward)
+        if len(held_frame) == 0 or len(fit_frame) == 0:
+            msg = (
+                f"the split left {len(fit_frame)} fitting and {len(held_frame)} held-out PAs; both must be "
+                "non-empty. Use more games, another holdout share, or a separate score table."
+            )
+            raise DataError(msg)
+        steps.update()
+
+        steps.set_postfix_str("counting")
+        fit = fit_source if fit_source is not None else fit_frame
+        batter_counts = _side_counts(fit, "batter", basis)
+        pitcher_counts = _side_counts(fit, "pitcher", basis)
+        cells, cell_of_pa = collapse_cells(held_frame, return_inverse=True)
+        y = cells[list(OUTCOMES)].to_numpy(dtype=float)
+        bc = _aligned(cells, batter_counts, "batter_id")
+        qc = _aligned(cells, pitcher_counts, "pitcher_id")
+        lg = _league_by_cell(cells, league_counts(fit))
+        steps.update()
+
+        steps.set_postfix_str("linear surface")
+        bs, qs = _shrunk_grid(bc, lg, bp), _shrunk_grid(qc, lg, pp)
+        a_, b_, c_, total = _linear_coefficients(y, bs, qs)
+        surface = _surface_frame(a_, b_, c_, total, bp, pp, w_grid)
+        best_by_priors = _best_pairs(a_, b_, c_, total, bp, pp)
+        best = best_by_priors.loc[best_by_priors["brier"].idxmin()]
+        ib = int(np.flatnonzero(bp == best["batter_prior_pa"])[0])
+        ip = int(np.flatnonzero(pp == best["pitcher_prior_pa"])[0])
+        w_best = float(best["pitcher_weight"])
+        p_best = linear_blend(bs[ib], qs[ip], w_best)
+        baselines = _baselines(a_, b_, c_, total, lg, y)
+        steps.update()
+
+        steps.set_postfix_str("two-stage surface")
+        coef, _ = _two_stage_coefficients(y, bs, qs, progress=False)
+        grid = _two_stage_grid(coef, total, w_grid, w_grid)
+        i2 = np.unravel_index(np.argmin(grid), grid.shape)
+        two_p = two_stage_blend(bs[i2[0]], qs[i2[1]], first_weight=w_grid[i2[2]], in_play_weight=w_grid[i2[3]])
+        two_stage = {
+            "first_weight": float(w_grid[i2[2]]),
+            "in_play_weight": float(w_grid[i2[3]]),
+            "batter_prior_pa": float(bp[i2[0]]),
+            "pitcher_prior_pa": float(pp[i2[1]]),
+            "brier": float(grid[i2]),
+            "log_loss": log_loss(two_p, y),
+        }
+        steps.update()
+
+        steps.set_postfix_str("odds-ratio blend")
+        odds = _odds_ratio_best(y, bs, qs, lg, bp, pp)
+        steps.update()
+
+        steps.set_postfix_str("bootstrap")
+        # scoring units that lie in one game each: cell x game
+        units = pd.DataFrame(
+            {"cell": cell_of_pa, "game_id": held_frame["game_id"].astype(str).to_numpy(), "outcome": held_frame["outcome"].to_numpy()}
+        )
+        unit_cells, _ = collapse_cells(units, keys=("cell", "game_id"), return_inverse=True)
+        uc = unit_cells["cell"].to_numpy()
+        boot = weight_bootstrap(
+            unit_cells[list(OUTCOMES)].to_numpy(dtype=float), bc[uc], qc[uc], lg[uc], unit_cells["game_id"].to_numpy(),
+            batter_priors=bp, pitcher_priors=pp, n_boot=n_boot, seed=seed, progress=False,
+        )
+        tail = (1.0 - float(interval_level)) / 2.0
+        interval = (float(np.quantile(boot, tail)), float(np.quantile(boot, 1.0 - tail)))
+        steps.update()
+
+        steps.set_postfix_str("reliability")
+        reliability = reliability_table(p_best, y, n_bins=n_bins)
+        brier_best = float(best["brier"])
+        methods = pd.DataFrame(
+            [
+                {
+                    "method": "linear", "brier": brier_best, "log_loss": log_loss(p_best, y),
+                    "batter_prior_pa": float(bp[ib]), "pitcher_prior_pa": float(pp[ip]),
+                    "settings": f"pitcher_weight={w_best:.3f}",
+                },
+                {
+                    "method": "odds-ratio", "brier": odds["brier"], "log_loss": odds["log_loss"],
+                    "batter_prior_pa": odds["batter_prior_pa"], "pitcher_prior_pa": odds["pitcher_prior_pa"],
+                    "settings": "batter_exponent=1, pitcher_exponent=1",
+                },
+                {
+                    "method": "two-stage", "brier": two_stage["brier"], "log_loss": two_stage["log_loss"],
+                    "batter_prior_pa": two_stage["batter_prior_pa"], "pitcher_prior_pa": two_stage["pitcher_prior_pa"],
+                    "settings": f"first_weight={two_stage['first_weight']:.2f}, in_play_weight={two_stage['in_play_weight']:.2f}",
+                },
+            ]
+        )
+        steps.update()
+    finally:
+        steps.close()
+
+    return CalibrationResult(
+        pitcher_weight=w_best,
+        batter_prior_pa=float(bp[ib]),
+        pitcher_prior_pa=float(pp[ip]),
+        brier=brier_best,
+        log_loss=float(methods.loc[0, "log_loss"]),
+        brier_baselines=baselines,
+        skill_scores={k: 1.0 - brier_best / v for k, v in baselines.items()},
+        weight_interval=interval,
+        interval_level=float(interval_level),
+        two_stage=two_stage,
+        methods=methods,
+        surface=surface,
+        best_by_priors=best_by_priors,
+        reliability=reliability,
+        n_fit_pa=int(len(fit_frame)),
+        n_holdout_pa=int(len(held_frame)),
+        n_cells=int(len(cells)),
+        split=split_name,
+        basis=basis,
+    )
+
+
+def _baselines(a_, b_, c_, total, lg, y) -> dict[str, float]:
+    """League-only, and the blend at w = 0, 1, 0.5, each at its best prior pair."""
+
+    def at(w: float) -> float:
+        return float(np.min(a_ * w**2 + b_ * w + c_) / total)
+
+    return {
+        "league": brier_score(lg, y),
+        "batter_only": at(0.0),
+        "pitcher_only": at(1.0),
+        "even_blend": at(0.5),
+    }
+
+
+def _odds_ratio_best(y, bs, qs, lg, bp, pp) -> dict[str, float]:
+    """Odds-ratio blend (exponents 1) at every prior pair; the best pair's scores."""
+    n = y.sum(axis=1)
+    total = n.sum()
+    best = {"brier": np.inf}
+    for i in range(bs.shape[0]):  # one vectorised block per batter prior: (n_pitcher_priors, cells, 9)
+        p = odds_ratio_blend(bs[i][None], qs, lg[None])
+        brier = (np.einsum("jrk,jrk,r->j", p, p, n) - 2 * np.einsum("jrk,rk->j", p, y) + total) / total
+        j = int(np.argmin(brier))
+        if brier[j] < best["brier"]:
+            best = {
+                "brier": float(brier[j]),
+                "log_loss": log_loss(p[j], y),
+                "batter_prior_pa": float(bp[i]),
+                "pitcher_prior_pa": float(pp[j]),
+            }
+    return best
+
