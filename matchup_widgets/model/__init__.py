@@ -12,9 +12,11 @@ from ._calibrate_surface import (
     two_stage_surface,
     weight_bootstrap,
 )
+from ._distributions import league_distributions, outcome_distributions, split_label, with_rates
 from ._empirical_bayes import empirical_bayes_prior
 from ._intervals import INTERVAL_FLOOR, matchup_interval, posterior_draws
 from ._scores import brier_score, log_loss, reliability_table
+from ._matchup import BASES, MatchupEstimate, MatchupModel
 from ._shrink import shrink
 from ._summary import (
     FALLBACK_WOBA_SCALE,
@@ -25,6 +27,13 @@ from ._summary import (
 )
 
 __all__ = [
+    "BASES",
+    "MatchupEstimate",
+    "MatchupModel",
+    "league_distributions",
+    "outcome_distributions",
+    "split_label",
+    "with_rates",
     "CalibrationResult",
     "calibrate",
     "CELL_KEYS",

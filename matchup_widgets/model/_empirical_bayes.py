@@ -71,6 +71,11 @@ def empirical_bayes_prior(
         msg = f"role must be 'batter' or 'pitcher'; got {role!r}."
         raise ValueError(msg)
     counts, strata = _player_counts(counts_table, role=role, by_split=by_split)
+    return prior_from_counts(counts, strata, role=role, min_pa=min_pa)
+
+
+def prior_from_counts(counts: np.ndarray, strata: np.ndarray, *, role: str, min_pa: float) -> pd.DataFrame:
+    """Method-of-moments prior sizes from a (units, 9) count array with a stratum label per unit."""
     n = counts.sum(axis=1)
     keep = n >= min_pa
     counts, strata, n = counts[keep], strata[keep], n[keep]

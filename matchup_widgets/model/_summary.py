@@ -95,8 +95,15 @@ def _runs_layer_weights(league: tuple[float, ...] | None) -> dict[str, Any] | No
     if woba_fn is None or linear_fn is None:
         return None
     probs = pd.Series(league, index=list(OUTCOMES))
-    woba = _as_weight_vector(woba_fn(probs), "woba_weights")
-    linear = _as_weight_vector(linear_fn(probs), "linear_weights")
+    try:
+        woba = woba_fn(probs)
+        linear = linear_fn(probs)
+    except ValueError:
+        return None  # e.g. a league without outs: the published constants still apply
+    if isinstance(woba, tuple):  # (weights, scale)
+        woba = woba[0]
+    woba = _as_weight_vector(woba, "woba_weights")
+    linear = _as_weight_vector(linear, "linear_weights")
     return {"woba": woba, "linear": linear, "source": "run values from the runs layer"}
 
 

@@ -1,0 +1,566 @@
+"""The matchup estimator: settings given once, a fit that aggregates counts, a fast predict."""
+
+from __future__ import annotations
+
+import inspect
+import math
+from dataclasses import dataclass, field
+from typing import Any
+
+import numpy as np
+import pandas as pd
+
+from matchup_widgets.data import HANDS, OUTCOMES, DataError
+
+from ._blend import METHODS, blend
+from ._distributions import CountCube, split_label
+from ._empirical_bayes import prior_from_counts
+from ._intervals import matchup_interval
+from ._shrink import shrink
+from ._summary import SUMMARY_COLUMNS, run_weights, summarize
+
+#: Where the counts come from: observed outcomes, or balls in play replaced by their
+#: contact-expected outcome probabilities (the contact layer's model).
+BASES: tuple[str, ...] = ("observed", "contact")
+
+_DEFAULTS: dict[str, Any] = {
+    "method": "linear",
+    "pitcher_weight": 0.5,
+    "batter_prior_pa": 200.0,
+    "pitcher_prior_pa": 200.0,
+    "first_weight": None,
+    "in_play_weight": None,
+    "batter_exponent": 1.0,
+    "pitcher_exponent": 1.0,
+    "basis": "observed",
+    "seasons": None,
+    "interval": 0.8,
+    "n_draws": 2000,
+    "seed": 0,
+}
+
+
+@dataclass(frozen=True, eq=False)
+class MatchupEstimate:
+    """One batter-versus-pitcher estimate with its intervals, inputs and summaries.
+
+    Attributes
+    ----------
+    batter_id, pitcher_id, batter_name, pitcher_name : str
+    batter_hand, pitcher_hand : str
+        The platoon split used: the side the batter hits from and the pitcher's hand.
+    switch_hitter : bool
+        Whether the batter was seen batting from both sides.
+    probabilities : pandas.Series
+        Blended outcome probabilities by code (sum to 1).
+    intervals : pandas.DataFrame
+        ``lo`` and ``hi`` per code (central ``interval`` credible interval).
+    distributions : pandas.DataFrame
+        Rows ``batter_raw, batter, pitcher_raw, pitcher, league, matchup`` (shrunk rows
+        carry the side's name without suffix); columns the codes.
+    counts : pandas.DataFrame
+        Rows ``batter, pitcher, league``: outcome counts in the split, and ``pa``.
+    pa : dict
+        ``{"batter": n, "pitcher": n}`` plate appearances in the split.
+    effective_pa : float
+        Plate appearances of a single sample as precise as the blended estimate.
+    summary : pandas.DataFrame
+        Rows ``matchup, batter, pitcher, league``; columns ``SUMMARY_COLUMNS``.
+    suggested_prior_pa : pandas.DataFrame
+        Empirical-Bayes prior sizes per outcome (rows) for ``batter`` and ``pitcher``.
+    settings : dict
+        The model settings that produced the estimate.
+    weights_source : str
+        Where the wOBA and run weights came from.
+    """
+
+    batter_id: str
+    pitcher_id: str
+    batter_name: str
+    pitcher_name: str
+    batter_hand: str
+    pitcher_hand: str
+    switch_hitter: bool
+    probabilities: pd.Series
+    intervals: pd.DataFrame
+    distributions: pd.DataFrame
+    counts: pd.DataFrame
+    pa: dict[str, float]
+    effective_pa: float
+    summary: pd.DataFrame
+    suggested_prior_pa: pd.DataFrame
+    settings: dict[str, Any] = field(default_factory=dict)
+    weights_source: str = ""
+
+    @property
+    def split(self) -> str:
+        """The platoon split, e.g. ``"L vs R"``."""
+        return split_label(self.batter_hand, self.pitcher_hand)
+
+    @property
+    def k_rate(self) -> float:
+        return float(self.summary.loc["matchup", "k_rate"])
+
+    @property
+    def bb_rate(self) -> float:
+        return float(self.summary.loc["matchup", "bb_rate"])
+
+    @property
+    def hr_rate(self) -> float:
+        return float(self.summary.loc["matchup", "hr_rate"])
+
+    @property
+    def on_base(self) -> float:
+        return float(self.summary.loc["matchup", "on_base"])
+
+    @property
+    def woba(self) -> float:
+        return float(self.summary.loc["matchup", "woba"])
+
+    @property
+    def runs_per_pa(self) -> float:
+        """Runs per PA relative to the league average PA of the split."""
+        return float(self.summary.loc["matchup", "runs_per_pa"])
+
+    def to_dict(self) -> dict[str, Any]:
+        """Plain-Python form for JSON (the ``blend`` command prints it)."""
+        probs = {c: float(v) for c, v in self.probabilities.items()}
+        return {
+            "batter": {"id": self.batter_id, "name": self.batter_name, "hand": self.batter_hand,
+                       "switch_hitter": self.switch_hitter},
+            "pitcher": {"id": self.pitcher_id, "name": self.pitcher_name, "hand": self.pitcher_hand},
+            "split": self.split,
+            "probabilities": probs,
+            "intervals": {c: [float(lo), float(hi)] for c, lo, hi in
+                          zip(self.intervals.index, self.intervals["lo"], self.intervals["hi"])},
+            "pa": {k: _number(v) for k, v in self.pa.items()},
+            "effective_pa": float(self.effective_pa),
+            "woba": self.woba,
+            "runs_per_pa": self.runs_per_pa,
+            "k_rate": self.k_rate,
+            "bb_rate": self.bb_rate,
+            "hr_rate": self.hr_rate,
+            "on_base": self.on_base,
+            "summary": {row: {c: _finite(v) for c, v in vals.items()}
+                        for row, vals in self.summary.to_dict("index").items()},
+            "league": {c: float(v) for c, v in self.distributions.loc["league"].items()},
+            "suggested_prior_pa": {side: {c: _finite(v) for c, v in self.suggested_prior_pa[side].items()}
+                                   for side in self.suggested_prior_pa.columns},
+            "weights_source": self.weights_source,
+            "settings": dict(self.settings),
+        }
+
+
+def _finite(value: Any) -> float | None:
+    value = float(value)
+    return value if math.isfinite(value) else None
+
+
+def _number(value: Any) -> float | int:
+    value = float(value)
+    return int(value) if value.is_integer() else value
+
+
+class MatchupModel:
+    """Estimate batter-versus-pitcher outcome probabilities from platoon-split counts.
+
+    Settings are stored unchanged; :meth:`fit` aggregates the plate appearances once
+    into count arrays by player, season and split; :meth:`predict` shrinks each side toward
+    the league of the split, blends, and samples intervals, in a few milliseconds.
+    :meth:`with_settings` returns a model with other settings sharing the fitted counts.
+
+    Parameters
+    ----------
+    method : {"linear", "odds-ratio", "two-stage"}
+        Blend method.
+    pitcher_weight : float in [0, 1]
+        Pitcher weight of the linear blend (and default of both two-stage weights).
+    batter_prior_pa, pitcher_prior_pa : float >= 0
+        League plate appearances of the same split added to each side (0 = raw rates).
+    first_weight, in_play_weight : float in [0, 1] or None
+        Two-stage pitcher weights; None uses ``pitcher_weight``.
+    batter_exponent, pitcher_exponent : float >= 0
+        Odds-ratio exponents (1, 1 is the generalised Log5).
+    basis : {"observed", "contact"}
+        Count observed outcomes, or replace balls in play by contact-expected outcomes.
+    seasons : (int, int) or None
+        Inclusive season range; all seasons when None.
+    interval : float in (0, 1)
+        Central probability of the intervals.
+    n_draws : int
+        Posterior draws for the intervals.
+    seed : int
+        Seed of the interval draws (fixed so the same settings give the same intervals).
+
+    Examples
+    --------
+    >>> model = MatchupModel(pitcher_weight=0.4)
+    >>> model.get_params()["pitcher_weight"], model.with_settings(method="odds-ratio").method
+    (0.4, 'odds-ratio')
+    """
+
+    def __init__(
+        self,
+        *,
+        method: str = "linear",
+        pitcher_weight: float = 0.5,
+        batter_prior_pa: float = 200.0,
+        pitcher_prior_pa: float = 200.0,
+        first_weight: float | None = None,
+        in_play_weight: float | None = None,
+        batter_exponent: float = 1.0,
+        pitcher_exponent: float = 1.0,
+        basis: str = "observed",
+        seasons: tuple[int, int] | None = None,
+        interval: float = 0.8,
+        n_draws: int = 2000,
+        seed: int = 0,
+    ) -> None:
+        self.method = method
+        self.pitcher_weight = pitcher_weight
+        self.batter_prior_pa = batter_prior_pa
+        self.pitcher_prior_pa = pitcher_prior_pa
+        self.first_weight = first_weight
+        self.in_play_weight = in_play_weight
+        self.batter_exponent = batter_exponent
+        self.pitcher_exponent = pitcher_exponent
+        self.basis = basis
+        self.seasons = seasons
+        self.interval = interval
+        self.n_draws = n_draws
+        self.seed = seed
+
+    # ---- settings -------------------------------------------------------------------
+    def get_params(self) -> dict[str, Any]:
+        """The settings as a dict."""
+        return {name: getattr(self, name) for name in _DEFAULTS}
+
+    def set_params(self, **params: Any) -> MatchupModel:
+        """Change settings in place (fitted counts are kept); returns ``self``."""
+        _check_names(params)
+        checked = _check_settings({**self.get_params(), **params})
+        for name in params:
+            setattr(self, name, checked[name])
+        return self
+
+    def with_settings(self, **params: Any) -> MatchupModel:
+        """A new model with some settings changed, sharing this model's fitted counts."""
+        _check_names(params)
+        new = type(self)(**{**self.get_params(), **params})
+        _check_settings(new.get_params())
+        for name, value in vars(self).items():
+            if name.endswith("_") and not name.startswith("__"):
+                setattr(new, name, value)  # fitted state is read-only and shared
+        return new
+
+    def __repr__(self) -> str:
+        changed = {k: v for k, v in self.get_params().items() if v != _DEFAULTS[k]}
+        inner = ", ".join(f"{k}={v!r}" for k, v in changed.items())
+        return f"MatchupModel({inner})"
+
+    # ---- fit ------------------------------------------------------------------------
+    def fit(self, pas: Any) -> MatchupModel:
+        """Aggregate plate appearances into counts by player, season and platoon split.
+
+        Parameters
+        ----------
+        pas : PlateAppearances (or ibis table / pandas DataFrame with the contract's columns)
+            Loaded plate appearances (:func:`matchup_widgets.data.load_pas`).
+
+        Returns
+        -------
+        MatchupModel
+            ``self``, with ``batter_counts_``, ``pitcher_counts_`` (count cubes),
+            ``players_`` (id, name, role, hands, pa), ``names_``, ``seasons_`` and ``n_pa_``.
+        """
+        from matchup_widgets.data import PlateAppearances, outcome_counts, player_table
+
+        _check_settings(self.get_params())
+        self.pas_ = pas
+        self.batter_counts_ = CountCube.from_table(outcome_counts(pas, role="batter", by_season=True))
+        self.pitcher_counts_ = CountCube.from_table(outcome_counts(pas, role="pitcher", by_season=True))
+        self.players_ = pas.players if isinstance(pas, PlateAppearances) else player_table(pas)
+        self.names_ = {
+            (str(role), str(pid)): str(name)
+            for role, pid, name in zip(self.players_["role"], self.players_["player_id"], self.players_["name"])
+        }
+        self.seasons_ = [int(s) for s in self.batter_counts_.seasons]
+        self.n_pa_ = int(self.batter_counts_.counts.sum())
+        self.cache_ = {}  # derived tables (contact basis, prior suggestions), shared by copies
+        return self
+
+    def _check_fitted(self) -> None:
+        if not hasattr(self, "batter_counts_"):
+            msg = "This MatchupModel is not fitted yet; call fit(pas) with loaded plate appearances first."
+            raise RuntimeError(msg)
+
+    # ---- predict --------------------------------------------------------------------
+    def predict(self, batter: str, pitcher: str, *, batter_hand: str | None = None) -> MatchupEstimate:
+        """Estimate the outcome distribution of ``batter`` facing ``pitcher``.
+
+        Parameters
+        ----------
+        batter, pitcher : str
+            Player ids, or names (resolved with :func:`matchup_widgets.data.resolve_player`).
+        batter_hand : {"L", "R"} or None, keyword-only
+            The side the batter hits from; by default the usual side (a switch hitter
+            bats opposite the pitcher's hand). Give it to ask a what-if.
+
+        Returns
+        -------
+        MatchupEstimate
+
+        Raises
+        ------
+        DataError
+            For an unknown or ambiguous name (the closest matches are listed), or a player
+            without plate appearances in the selected seasons.
+        """
+        self._check_fitted()
+        params = _check_settings(self.get_params())
+        bcube, pcube = self._cubes(params)
+        batter_id = self._resolve(batter, "batter", bcube)
+        pitcher_id = self._resolve(pitcher, "pitcher", pcube)
+        if batter_hand is not None and batter_hand not in HANDS:
+            msg = f"batter_hand must be 'L', 'R' or None (automatic); got {batter_hand!r}."
+            raise ValueError(msg)
+        # the pitcher's hand: the one he threw with most; the batter's side follows from it
+        p_hands = pcube.hand_totals(pitcher_id).sum(axis=0)
+        ph = int(np.argmax(p_hands))
+        b_sides = bcube.hand_totals(batter_id).sum(axis=1)
+        switch = bool(np.all(b_sides > 0))
+        if batter_hand is not None:
+            bh = HANDS.index(batter_hand)
+        elif switch:
+            bh = 1 - ph
+        else:
+            bh = int(np.argmax(b_sides))
+        mask_b, mask_p = bcube.season_mask(params["seasons"]), pcube.season_mask(params["seasons"])
+        b_all = bcube.player(batter_id, mask_b)
+        p_all = pcube.player(pitcher_id, mask_p)
+        for role, pid, counts in (("batter", batter_id, b_all), ("pitcher", pitcher_id, p_all)):
+            if counts.sum() == 0:
+                msg = (
+                    f"{role} {pid!r} has no plate appearances in seasons {params['seasons']} "
+                    f"(data has seasons {self.seasons_}). Widen the season range."
+                )
+                raise DataError(msg)
+        lg_counts = bcube.league(mask_b)[bh, ph]
+        if lg_counts.sum() <= 0:
+            msg = (
+                f"the league has no plate appearances in split {split_label(HANDS[bh], HANDS[ph])} "
+                f"for seasons {params['seasons']}; shrinkage needs a league baseline. Widen the season range."
+            )
+            raise DataError(msg)
+        league = lg_counts / lg_counts.sum()
+        b_counts, p_counts = b_all[bh, ph], p_all[bh, ph]
+        b_shrunk = shrink(b_counts, league, params["batter_prior_pa"])
+        p_shrunk = shrink(p_counts, league, params["pitcher_prior_pa"])
+        weights = _blend_weights(params)
+        point = blend(params["method"], b_shrunk, p_shrunk, league, **weights)
+        spread = matchup_interval(
+            params["method"], b_counts, p_counts, league,
+            batter_prior_pa=params["batter_prior_pa"], pitcher_prior_pa=params["pitcher_prior_pa"],
+            interval=params["interval"], n_draws=params["n_draws"], seed=params["seed"], point=point,
+            **weights,
+        )
+        codes = list(OUTCOMES)
+        with np.errstate(invalid="ignore", divide="ignore"):
+            b_raw = b_counts / b_counts.sum() if b_counts.sum() > 0 else np.full(9, np.nan)
+            p_raw = p_counts / p_counts.sum() if p_counts.sum() > 0 else np.full(9, np.nan)
+        distributions = pd.DataFrame(
+            [b_raw, b_shrunk, p_raw, p_shrunk, league, point],
+            index=["batter_raw", "batter", "pitcher_raw", "pitcher", "league", "matchup"],
+            columns=codes,
+        )
+        counts = pd.DataFrame([b_counts, p_counts, lg_counts], index=["batter", "pitcher", "league"], columns=codes)
+        counts["pa"] = counts[codes].sum(axis=1)
+        run_w = run_weights(league)
+        summary = summarize(np.vstack([point, b_shrunk, p_shrunk, league]), league=league, weights=run_w)
+        summary.index = ["matchup", "batter", "pitcher", "league"]
+        return MatchupEstimate(
+            batter_id=batter_id,
+            pitcher_id=pitcher_id,
+            batter_name=self._name(batter_id, "batter"),
+            pitcher_name=self._name(pitcher_id, "pitcher"),
+            batter_hand=HANDS[bh],
+            pitcher_hand=HANDS[ph],
+            switch_hitter=switch,
+            probabilities=pd.Series(point, index=codes, name="p"),
+            intervals=pd.DataFrame({"lo": spread["lo"], "hi": spread["hi"]}, index=codes),
+            distributions=distributions,
+            counts=counts,
+            pa={"batter": float(b_counts.sum()), "pitcher": float(p_counts.sum())},
+            effective_pa=float(spread["effective_pa"]),
+            summary=summary[list(SUMMARY_COLUMNS)],
+            suggested_prior_pa=self.suggested_priors(),
+            settings=_plain_settings(params),
+            weights_source=run_w["source"],
+        )
+
+    def suggested_priors(self, *, min_pa: int = 30) -> pd.DataFrame:
+        """Empirical-Bayes prior sizes per outcome for batters and pitchers (current seasons, basis).
+
+        Splits are strata (each player-split is one unit, compared with its split's mean).
+
+        Returns
+        -------
+        pandas.DataFrame
+            Index: outcome codes and ``"all"``; columns ``batter``, ``pitcher`` (plate
+            appearances; ``inf`` when players differ no more than chance allows).
+        """
+        self._check_fitted()
+        params = _check_settings(self.get_params())
+        key = ("priors", params["basis"], params["seasons"], min_pa)
+        if key not in self.cache_:
+            cols = {}
+            for role, cube in zip(("batter", "pitcher"), self._cubes(params)):
+                mask = cube.season_mask(params["seasons"])
+                units = cube.counts[:, mask].sum(axis=1).reshape(-1, len(OUTCOMES))  # (player * 4 splits, 9)
+                strata = np.tile(np.arange(len(HANDS) ** 2), len(cube.ids))
+                try:
+                    cols[role] = prior_from_counts(units, strata, role=role, min_pa=min_pa)["prior_pa"]
+                except DataError:
+                    cols[role] = pd.Series(np.nan, index=[*OUTCOMES, "all"])
+            self.cache_[key] = pd.DataFrame(cols)
+        return self.cache_[key]
+
+    # ---- helpers --------------------------------------------------------------------
+    def _cubes(self, params: dict[str, Any]) -> tuple[CountCube, CountCube]:
+        if params["basis"] == "observed":
+            return self.batter_counts_, self.pitcher_counts_
+        key = ("contact", None if _contact_by_season() else params["seasons"])
+        if key not in self.cache_:
+            self.cache_[key] = tuple(
+                CountCube.from_table(_contact_counts(self.pas_, role=role, seasons=key[1]))
+                for role in ("batter", "pitcher")
+            )
+        return self.cache_[key]
+
+    def _resolve(self, query: str, role: str, cube: CountCube) -> str:
+        text = str(query).strip()
+        if text in cube.index:
+            return text
+        from matchup_widgets.data import resolve_player
+
+        player_id = resolve_player(self.pas_, text, role=role)
+        if player_id not in cube.index:
+            msg = f"{role} {text!r} ({player_id}) has no plate appearances as a {role} in the fitted data."
+            raise DataError(msg)
+        return player_id
+
+    def _name(self, player_id: str, role: str) -> str:
+        return self.names_.get((role, player_id), player_id)
+
+
+# ---- the contact-basis hook (the only place that reaches into the contact layer) -------------
+def _contact_function() -> Any:
+    from matchup_widgets import contact
+
+    fn = getattr(contact, "contact_outcome_counts", None)
+    if fn is None:
+        msg = (
+            "basis='contact' needs matchup_widgets.contact.contact_outcome_counts, which this "
+            "installation does not provide yet; use basis='observed'."
+        )
+        raise NotImplementedError(msg)
+    return fn
+
+
+def _contact_by_season() -> bool:
+    try:
+        fn = _contact_function()
+    except NotImplementedError:
+        return False
+    return "by_season" in inspect.signature(fn).parameters
+
+
+def _contact_counts(pas: Any, *, role: str, seasons: tuple[int, int] | None) -> pd.DataFrame:
+    fn = _contact_function()
+    if _contact_by_season():
+        return fn(pas, role=role, by_season=True)
+    return fn(pas, role=role, seasons=seasons)
+
+
+# ---- settings checks ------------------------------------------------------------------------
+def _check_names(params: dict[str, Any]) -> None:
+    unknown = sorted(set(params) - set(_DEFAULTS))
+    if unknown:
+        msg = f"unknown MatchupModel setting(s) {unknown}; valid settings: {sorted(_DEFAULTS)}."
+        raise TypeError(msg)
+
+
+def _unit(value: Any, name: str, *, optional: bool = False) -> float | None:
+    if value is None and optional:
+        return None
+    try:
+        out = float(value)
+    except (TypeError, ValueError):
+        out = float("nan")
+    if not 0.0 <= out <= 1.0:
+        msg = f"{name} must be a number in [0, 1] (0 = all batter, 1 = all pitcher); got {value!r}."
+        raise ValueError(msg)
+    return out
+
+
+def _nonnegative(value: Any, name: str) -> float:
+    try:
+        out = float(value)
+    except (TypeError, ValueError):
+        out = float("nan")
+    if not (math.isfinite(out) and out >= 0):
+        msg = f"{name} must be a finite number >= 0; got {value!r}."
+        raise ValueError(msg)
+    return out
+
+
+def _check_settings(params: dict[str, Any]) -> dict[str, Any]:
+    """Validate every setting; return them normalised (floats, a season tuple)."""
+    out = dict(params)
+    if out["method"] not in METHODS:
+        msg = f"method must be one of {list(METHODS)}; got {out['method']!r}."
+        raise ValueError(msg)
+    if out["basis"] not in BASES:
+        msg = f"basis must be one of {list(BASES)}; got {out['basis']!r}."
+        raise ValueError(msg)
+    out["pitcher_weight"] = _unit(out["pitcher_weight"], "pitcher_weight")
+    out["first_weight"] = _unit(out["first_weight"], "first_weight", optional=True)
+    out["in_play_weight"] = _unit(out["in_play_weight"], "in_play_weight", optional=True)
+    for name in ("batter_prior_pa", "pitcher_prior_pa", "batter_exponent", "pitcher_exponent"):
+        out[name] = _nonnegative(out[name], name)
+    interval = out["interval"]
+    if not (isinstance(interval, (int, float)) and 0.0 < float(interval) < 1.0):
+        msg = f"interval must lie strictly between 0 and 1 (e.g. 0.8); got {interval!r}."
+        raise ValueError(msg)
+    if not (isinstance(out["n_draws"], (int, np.integer)) and out["n_draws"] >= 10):
+        msg = f"n_draws must be a whole number >= 10; got {out['n_draws']!r}."
+        raise ValueError(msg)
+    seasons = out["seasons"]
+    if seasons is not None:
+        try:
+            first, last = (int(s) for s in seasons)
+        except (TypeError, ValueError):
+            msg = f"seasons must be None or an inclusive (first, last) pair of years; got {seasons!r}."
+            raise ValueError(msg) from None
+        if first > last:
+            msg = f"seasons=({first}, {last}): the first season is after the last; give (first, last)."
+            raise ValueError(msg)
+        out["seasons"] = (first, last)
+    return out
+
+
+def _blend_weights(params: dict[str, Any]) -> dict[str, Any]:
+    return {
+        "pitcher_weight": params["pitcher_weight"],
+        "first_weight": params["first_weight"],
+        "in_play_weight": params["in_play_weight"],
+        "batter_exponent": params["batter_exponent"],
+        "pitcher_exponent": params["pitcher_exponent"],
+    }
+
+
+def _plain_settings(params: dict[str, Any]) -> dict[str, Any]:
+    out = dict(params)
+    if out["seasons"] is not None:
+        out["seasons"] = list(out["seasons"])
+    return out
