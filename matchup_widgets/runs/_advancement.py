@@ -242,7 +242,7 @@ def _cells(data: Any) -> tuple[pd.DataFrame, int]:
         rows = table[list(needed)]
         complete = rows.notna().all(axis=1)
         rows = rows[complete]
-        cells = rows[list(_CELL_KEYS)].astype({"outcome": str}).assign(
+        cells = rows[list(_CELL_KEYS)].assign(
             n=1, runs=rows["runs_on_play"].to_numpy(dtype=float)
         )
         return cells, int((~complete).sum())
@@ -315,10 +315,11 @@ def estimate_advancement(data: Any, *, min_count: int = MIN_COUNT) -> Advancemen
         raise ValueError(msg)
     cells, n_skipped = _cells(data)
     weight = cells["n"].to_numpy(dtype=float)
-    codes = cells["outcome"].astype(str).to_numpy()
-    index = pd.Index(OUTCOMES).get_indexer(codes)
+    # Factorise first: only the few distinct codes are looked up as strings.
+    inverse, uniques = pd.factorize(cells["outcome"])
+    index = pd.Index(OUTCOMES).get_indexer(pd.Index(uniques).astype(str))[inverse]
     if (index < 0).any():
-        bad = pd.unique(codes[index < 0])
+        bad = pd.unique(np.asarray(uniques, dtype=object)[inverse[index < 0]])
         msg = (
             f"column 'outcome' has {int(weight[index < 0].sum())} row(s) with codes outside "
             f"{list(OUTCOMES)} (e.g. {list(bad[:5])}). Map or drop them when loading."
