@@ -22,6 +22,11 @@ SURFACE_AXES: dict[str, str] = {
 }
 
 
+def _nearest(values: pd.Series, value: float) -> float:
+    """The grid value in ``values`` closest to ``value``."""
+    return values.iloc[(values - value).abs().to_numpy().argmin()]
+
+
 def _slice_surface(surface: pd.DataFrame, x: str, y: str, best: Mapping[str, float]) -> tuple[pd.DataFrame, str]:
     """Keep the rows of ``surface`` whose other settings equal the best ones; say which."""
     rows = surface
@@ -31,7 +36,7 @@ def _slice_surface(surface: pd.DataFrame, x: str, y: str, best: Mapping[str, flo
             continue
         value = best[col]
         # nearest grid value, so a best setting found off the grid still selects a slice
-        nearest = rows[col].iloc[(rows[col] - value).abs().to_numpy().argmin()]
+        nearest = _nearest(rows[col], value)
         rows = rows[rows[col] == nearest]
         held.append(f"{SURFACE_AXES[col]} {nearest:g}")
     return rows, ", ".join(held)
@@ -90,10 +95,11 @@ def brier_surface_chart(
     rows, held = _slice_surface(surface, x, y, best)
     rows = rows[[x, y, "brier"]].reset_index(drop=True)
     x_ticks, y_ticks = _ticks(rows[x]), _ticks(rows[y])
-    marker = pd.DataFrame({x: [best[x]], y: [best[y]]})
+    # the ring sits on the grid cell nearest the optimum (a closed-form weight lies between cells)
+    marker = pd.DataFrame({x: [_nearest(rows[x], best[x])], y: [_nearest(rows[y], best[y])]})
     x_title, y_title = SURFACE_AXES.get(x, x), SURFACE_AXES.get(y, y)
     title = "Brier score on held-out plate appearances (lower is better)"
-    subtitle = f"Ring: the optimum ({x_title.lower()} {best[x]:g}, {y_title.lower()} {best[y]:g})"
+    subtitle = f"Ring: the optimum ({x_title} {best[x]:.3g}, {y_title} {best[y]:.3g})"
     if held:
         subtitle += f"; {held} held at the optimum"
     # ordinal axes: the grid is the set of values tried, shown as even cells
@@ -101,8 +107,8 @@ def brier_surface_chart(
         alt.Chart(rows)
         .mark_rect()
         .encode(
-            x=alt.X(f"{x}:O", title=x_title, axis=alt.Axis(format="~g", labelAngle=0, values=x_ticks)),
-            y=alt.Y(f"{y}:O", title=y_title, sort="descending", axis=alt.Axis(format="~g", values=y_ticks)),
+            x=alt.X(f"{x}:O", title=x_title, axis=alt.Axis(format="~g", labelAngle=0, values=x_ticks, grid=False)),
+            y=alt.Y(f"{y}:O", title=y_title, sort="descending", axis=alt.Axis(format="~g", values=y_ticks, grid=False)),
             color=alt.Color(
                 "brier:Q",
                 title="Brier score",

@@ -60,10 +60,11 @@ def test_surface_holds_third_setting_at_optimum_and_marks_it(surface):
 
 def test_surface_uses_given_best_and_nearest_slice(surface):
     best = {"pitcher_weight": 0.7, "batter_prior_pa": 100, "pitcher_prior_pa": 160.0}
-    spec = brier_surface_chart(surface, best=best).to_dict()
+    spec = brier_surface_chart(surface, best=best | {"pitcher_weight": 0.66}).to_dict()
     cells = _layer_values(spec, 0)
     assert len(cells) == 9
     assert "Pitcher prior (PA) 150 held" in spec["title"]["subtitle"]
+    assert "(Pitcher weight 0.66, Batter prior (PA) 100)" in spec["title"]["subtitle"]
     assert _layer_values(spec, 2) == [{"pitcher_weight": 0.7, "batter_prior_pa": 100}]
 
 
