@@ -16,6 +16,7 @@ from ._distributions import league_distributions, outcome_distributions, split_l
 from ._empirical_bayes import empirical_bayes_prior
 from ._intervals import INTERVAL_FLOOR, matchup_interval, posterior_draws
 from ._scores import brier_score, log_loss, reliability_table
+from ._run_value import estimate_draws, run_value_interval
 from ._matchup import BASES, MatchupEstimate, MatchupModel
 from ._shrink import shrink
 from ._summary import (
@@ -30,6 +31,8 @@ __all__ = [
     "BASES",
     "MatchupEstimate",
     "MatchupModel",
+    "estimate_draws",
+    "run_value_interval",
     "league_distributions",
     "outcome_distributions",
     "split_label",
