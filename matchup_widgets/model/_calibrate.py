@@ -27,8 +27,8 @@ from ._calibrate_surface import (
     _shrunk_grid,
     _surface_frame,
     _two_stage_coefficients,
+    _bootstrap_shrunk,
     _two_stage_grid,
-    weight_bootstrap,
 )
 from ._scores import brier_score, log_loss, reliability_table
 
@@ -159,42 +159,126 @@ def _side_counts(fit: Any, role: str, basis: str) -> pd.DataFrame:
     return outcome_counts(fit, role=role)
 
 
-def _aligned(cells: pd.DataFrame, counts: pd.DataFrame, id_column: str) -> np.ndarray:
-    """Each cell's row of ``counts`` (player x split), zeros for players without fitting PAs."""
-    right = counts.rename(columns={"player_id": id_column})[[id_column, *_SPLIT_KEYS, *OUTCOMES]]
-    right = right.astype({id_column: str, "batter_hand": str, "pitcher_hand": str})
+@dataclass(frozen=True)
+class _Prepared:
+    """Held-out cells and each side's fitting rows, aligned by index (internal to calibrate)."""
+
+    cells: pd.DataFrame  # held-out cells: keys, outcome counts, pa
+    cell_of_pa: np.ndarray  # cell of each held-out PA
+    held: pd.DataFrame  # held-out PAs (game_id, outcome)
+    y: np.ndarray  # (n_cells, 9) held-out outcome counts
+    league: np.ndarray  # (n_cells, 9) league distribution of the cell's split
+    sides: dict  # role -> (row counts (n_rows, 9), row league (n_rows, 9), row of each cell)
+    n_fit_pa: int
+    split: str
+
+
+def _split_index(batter_hand, pitcher_hand) -> np.ndarray:
+    """Position of each (batter_hand, pitcher_hand) pair in SPLITS (L/L, L/R, R/L, R/R)."""
+    return 2 * (np.asarray(batter_hand, dtype=object) == "R") + (np.asarray(pitcher_hand, dtype=object) == "R")
+
+
+def _league_table(league: pd.DataFrame) -> np.ndarray:
+    """(4, 9) league distributions in SPLITS order; a split without PAs gets the whole league."""
+    counts = np.zeros((4, len(OUTCOMES)))
+    idx = _split_index(league["batter_hand"].astype(str), league["pitcher_hand"].astype(str))
+    np.add.at(counts, idx, league[list(OUTCOMES)].to_numpy(dtype=float))
+    empty = counts.sum(axis=1) == 0
+    counts[empty] = counts.sum(axis=0)
+    return counts / counts.sum(axis=1, keepdims=True)
+
+
+def _side_rows(cells: pd.DataFrame, counts: pd.DataFrame, id_column: str, league4: np.ndarray):
+    """Fitting rows of one side plus one empty row per split, and the row of each cell.
+
+    Shrinking is done once per player x split row and then gathered per cell; a player without
+    fitting PAs in the cell's split points at the empty row, which shrinks to the league.
+    """
+    n_rows = len(counts)
+    rows = np.vstack([counts[list(OUTCOMES)].to_numpy(dtype=float), np.zeros((4, len(OUTCOMES)))])
+    split_of_row = np.r_[_split_index(counts["batter_hand"].astype(str), counts["pitcher_hand"].astype(str)), np.arange(4)]
+    right = pd.DataFrame(
+        {
+            id_column: counts["player_id"].astype(str).to_numpy(),
+            "batter_hand": counts["batter_hand"].astype(str).to_numpy(),
+            "pitcher_hand": counts["pitcher_hand"].astype(str).to_numpy(),
+            "_row": np.arange(n_rows),
+        }
+    )
     left = cells[[id_column, *_SPLIT_KEYS]].astype(str)
     merged = left.merge(right, on=[id_column, *_SPLIT_KEYS], how="left", validate="many_to_one")
-    return merged[list(OUTCOMES)].to_numpy(dtype=float, na_value=0.0)
+    row = merged["_row"].to_numpy(dtype=float, na_value=np.nan)
+    cell_split = _split_index(left["batter_hand"], left["pitcher_hand"])
+    row = np.where(np.isnan(row), n_rows + cell_split, row).astype(np.intp)
+    return rows, league4[split_of_row], row
 
 
-def _league_by_cell(cells: pd.DataFrame, league: pd.DataFrame) -> np.ndarray:
-    """League distribution of each cell's platoon split (``league`` from ``league_counts``)."""
-    league = league.astype({"batter_hand": str, "pitcher_hand": str})
-    merged = cells[_SPLIT_KEYS].astype(str).merge(league, on=_SPLIT_KEYS, how="left")
-    arr = merged[list(OUTCOMES)].to_numpy(dtype=float, na_value=0.0)
-    missing = arr.sum(axis=1) == 0
-    if missing.any():
-        # a split absent from the fitting rows falls back to the whole league
-        arr[missing] = league[list(OUTCOMES)].to_numpy(dtype=float).sum(axis=0)
-    return arr / arr.sum(axis=1, keepdims=True)
+def _fit_source(pas, held_games: np.ndarray, basis: str):
+    """The fitting rows for the count functions: an engine-side anti-join on held-out games."""
+    import ibis
+
+    if basis == "contact":  # the contact layer works on a pandas frame
+        frame = pas.frame
+        return frame.loc[~frame["game_id"].astype(str).isin(held_games)]
+    table = pas.table
+    held = ibis.memtable(pd.DataFrame({"game_id": pd.Series(held_games, dtype=object)}))
+    return table.anti_join(held, table.game_id.cast("string") == held.game_id)
 
 
-def _split(pas, score, holdout_share: float, seed: int, season_forward: bool):
-    """Return (fit source for the count functions, fit frame, held-out frame, split name)."""
+def _prepare(pas, score, *, holdout_share: float, seed: int, season_forward: bool, basis: str) -> _Prepared:
+    """Split, count both sides on the fitting rows, collapse the held-out PAs into cells."""
     frame = pas.frame
     if score is not None:
-        return pas, frame, score.frame, "separate"
-    if season_forward:
-        if "season" not in frame.columns:
-            msg = "season-forward split needs a 'season' column (or game_date); load the table with load_pas."
-            raise DataError(msg)
-        held = split_last_season(frame["season"].to_numpy())
-        name = "season-forward"
+        fit, held, split = pas, score.frame, "separate"
+        n_fit = len(frame)
     else:
-        held = split_games(frame["game_id"].to_numpy(), holdout_share=holdout_share, seed=seed)
-        name = "games"
-    return None, frame.loc[~held], frame.loc[held], name
+        if season_forward:
+            if "season" not in frame.columns:
+                msg = "season-forward split needs a 'season' column (or game_date); load the table with load_pas."
+                raise DataError(msg)
+            is_held = split_last_season(frame["season"].to_numpy())
+            split = "season-forward"
+        else:
+            is_held = split_games(frame["game_id"].to_numpy(), holdout_share=holdout_share, seed=seed)
+            split = "games"
+        held = frame.loc[is_held, [*CELL_KEYS, "game_id", "outcome"]]
+        n_fit = int((~is_held).sum())
+        held_games = pd.unique(held["game_id"].astype(str).to_numpy())
+        if season_forward:
+            # fit on the earlier seasons only (a game id may not be unique across seasons)
+            last = frame["season"].max()
+            fit = pas.frame.loc[~is_held] if basis == "contact" else pas.table.filter(pas.table.season < int(last))
+        else:
+            fit = _fit_source(pas, held_games, basis)
+    if len(held) == 0 or n_fit == 0:
+        msg = (
+            f"the split left {n_fit} fitting and {len(held)} held-out PAs; both must be non-empty. "
+            "Use more games, another holdout share, or a separate score table."
+        )
+        raise DataError(msg)
+    league4 = _league_table(league_counts(fit))
+    cells, cell_of_pa = collapse_cells(held, return_inverse=True)
+    sides = {
+        role: _side_rows(cells, _side_counts(fit, role, basis), f"{role}_id", league4)
+        for role in ("batter", "pitcher")
+    }
+    cell_split = _split_index(cells["batter_hand"].astype(str), cells["pitcher_hand"].astype(str))
+    return _Prepared(
+        cells=cells,
+        cell_of_pa=cell_of_pa,
+        held=held,
+        y=cells[list(OUTCOMES)].to_numpy(dtype=float),
+        league=league4[cell_split],
+        sides=sides,
+        n_fit_pa=int(n_fit),
+        split=split,
+    )
+
+
+def _shrunk_cells(prep: _Prepared, role: str, priors: np.ndarray) -> np.ndarray:
+    """(n_priors, n_cells, 9): shrink each fitting row once per prior, then gather per cell."""
+    rows, row_league, row_of_cell = prep.sides[role]
+    return _shrunk_grid(rows, row_league, priors)[:, row_of_cell]
 
 
 def calibrate(
@@ -257,10 +341,11 @@ def calibrate(
 
     Examples
     --------
-    >>> from matchup_widgets.data.demo import make_demo_league  # doctest: +SKIP
-    >>> result = calibrate(make_demo_league(seed=1), progress=False)  # doctest: +SKIP
-    >>> 0 <= result.pitcher_weight <= 1  # doctest: +SKIP
-    True
+    >>> from matchup_widgets.data.demo import make_demo_league
+    >>> league = make_demo_league(seed=1, n_seasons=1, n_teams=2, n_games=8)
+    >>> result = calibrate(league.pas, priors=(0, 100), n_boot=20, progress=False)
+    >>> 0 <= result.pitcher_weight <= 1, result.n_fit_pa + result.n_holdout_pa == len(league.pas)
+    (True, True)
     """
     from tqdm.auto import tqdm
 
@@ -278,29 +363,13 @@ def calibrate(
 
     steps = tqdm(total=7, desc="fit", disable=not progress, unit="step")
     try:
-        steps.set_postfix_str("splitting")
-        fit_source, fit_frame, held_frame, split_name = _split(pas, score, holdout_share, seed, season_forward)
-        if len(held_frame) == 0 or len(fit_frame) == 0:
-            msg = (
-                f"the split left {len(fit_frame)} fitting and {len(held_frame)} held-out PAs; both must be "
-                "non-empty. Use more games, another holdout share, or a separate score table."
-            )
-            raise DataError(msg)
-        steps.update()
-
-        steps.set_postfix_str("counting")
-        fit = fit_source if fit_source is not None else fit_frame
-        batter_counts = _side_counts(fit, "batter", basis)
-        pitcher_counts = _side_counts(fit, "pitcher", basis)
-        cells, cell_of_pa = collapse_cells(held_frame, return_inverse=True)
-        y = cells[list(OUTCOMES)].to_numpy(dtype=float)
-        bc = _aligned(cells, batter_counts, "batter_id")
-        qc = _aligned(cells, pitcher_counts, "pitcher_id")
-        lg = _league_by_cell(cells, league_counts(fit))
-        steps.update()
+        steps.set_postfix_str("splitting and counting")
+        prep = _prepare(pas, score, holdout_share=holdout_share, seed=seed, season_forward=season_forward, basis=basis)
+        cells, y, lg = prep.cells, prep.y, prep.league
+        steps.update(2)
 
         steps.set_postfix_str("linear surface")
-        bs, qs = _shrunk_grid(bc, lg, bp), _shrunk_grid(qc, lg, pp)
+        bs, qs = _shrunk_cells(prep, "batter", bp), _shrunk_cells(prep, "pitcher", pp)
         a_, b_, c_, total = _linear_coefficients(y, bs, qs)
         surface = _surface_frame(a_, b_, c_, total, bp, pp, w_grid)
         best_by_priors = _best_pairs(a_, b_, c_, total, bp, pp)
@@ -334,13 +403,13 @@ def calibrate(
         steps.set_postfix_str("bootstrap")
         # scoring units that lie in one game each: cell x game
         units = pd.DataFrame(
-            {"cell": cell_of_pa, "game_id": held_frame["game_id"].astype(str).to_numpy(), "outcome": held_frame["outcome"].to_numpy()}
+            {"cell": prep.cell_of_pa, "game_id": prep.held["game_id"].astype(str).to_numpy(), "outcome": prep.held["outcome"].to_numpy()}
         )
-        unit_cells, _ = collapse_cells(units, keys=("cell", "game_id"), return_inverse=True)
+        unit_cells = collapse_cells(units, keys=("cell", "game_id"))
         uc = unit_cells["cell"].to_numpy()
-        boot = weight_bootstrap(
-            unit_cells[list(OUTCOMES)].to_numpy(dtype=float), bc[uc], qc[uc], lg[uc], unit_cells["game_id"].to_numpy(),
-            batter_priors=bp, pitcher_priors=pp, n_boot=n_boot, seed=seed, progress=False,
+        boot = _bootstrap_shrunk(
+            unit_cells[list(OUTCOMES)].to_numpy(dtype=float), bs[:, uc], qs[:, uc], unit_cells["game_id"].to_numpy(),
+            n_boot=n_boot, seed=seed, progress=False,
         )
         tail = (1.0 - float(interval_level)) / 2.0
         interval = (float(np.quantile(boot, tail)), float(np.quantile(boot, 1.0 - tail)))
@@ -387,10 +456,10 @@ def calibrate(
         surface=surface,
         best_by_priors=best_by_priors,
         reliability=reliability,
-        n_fit_pa=int(len(fit_frame)),
-        n_holdout_pa=int(len(held_frame)),
+        n_fit_pa=prep.n_fit_pa,
+        n_holdout_pa=int(len(prep.held)),
         n_cells=int(len(cells)),
-        split=split_name,
+        split=prep.split,
         basis=basis,
     )
 

@@ -56,9 +56,9 @@ def split_games(game_ids, *, holdout_share: float = 0.25, seed: int = 0) -> np.n
             "Use e.g. 0.25 to hold out a quarter of the games."
         )
         raise ValueError(msg)
-    games = np.asarray(game_ids, dtype=object).astype(str)
-    uniq, inverse = np.unique(games, return_inverse=True)
-    n_games = uniq.size
+    # sorted codes: the split depends on the set of game ids, not on the row order
+    inverse, uniq = pd.factorize(pd.Series(np.asarray(game_ids, dtype=object)).astype(str), sort=True)
+    n_games = len(uniq)
     if n_games < 2:
         msg = (
             f"a held-out split needs at least 2 games; the table has {n_games}. "

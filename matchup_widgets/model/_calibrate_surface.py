@@ -380,17 +380,22 @@ def weight_bootstrap(
     >>> bool(((w >= 0) & (w <= 1)).all()), w.shape
     (True, (50,))
     """
-    from tqdm.auto import tqdm
-
     bp = _check_grid(batter_priors, "batter_priors")
     pp = _check_grid(pitcher_priors, "pitcher_priors")
     if int(n_boot) < 1:
         msg = f"n_boot must be a positive number of replicates; got {n_boot}."
         raise ValueError(msg)
-    y = np.asarray(observed, dtype=float)
     lg = np.asarray(league, dtype=float)
     bs = _shrunk_grid(np.asarray(batter_counts, float), lg, bp)
     qs = _shrunk_grid(np.asarray(pitcher_counts, float), lg, pp)
+    return _bootstrap_shrunk(observed, bs, qs, groups, n_boot=n_boot, seed=seed, progress=progress)
+
+
+def _bootstrap_shrunk(observed, bs, qs, groups, *, n_boot: int, seed: int, progress: bool) -> np.ndarray:
+    """weight_bootstrap on already shrunk grids bs (nb, R, 9) and qs (nq, R, 9)."""
+    from tqdm.auto import tqdm
+
+    y = np.asarray(observed, dtype=float)
     n = y.sum(axis=1)
     # per-unit terms of A, B, C for every prior pair (see the module notes)
     s_bb = np.einsum("irk,irk,r->ir", bs, bs, n)
@@ -402,7 +407,7 @@ def weight_bootstrap(
     b_u = 2 * (s_bq - s_bb[:, None] - t_q[None] + t_b[:, None])
     c_u = np.broadcast_to((s_bb - 2 * t_b)[:, None], a_u.shape)
     # sum the units of each group: sort by group, then add runs
-    _, g = np.unique(np.asarray(groups, dtype=object).astype(str), return_inverse=True)
+    g, _ = pd.factorize(np.asarray(groups, dtype=object))
     order = np.argsort(g, kind="stable")
     starts = np.flatnonzero(np.r_[True, np.diff(g[order]) != 0])
     per_group = [np.add.reduceat(x[..., order], starts, axis=-1) for x in (a_u, b_u, c_u)]
