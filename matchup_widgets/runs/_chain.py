@@ -173,25 +173,49 @@ def split_by_runs(p: np.ndarray, table: AdvancementTable) -> np.ndarray:
     return out
 
 
+def solve_by_outs(a: np.ndarray, b: np.ndarray, *, transpose: bool = False) -> np.ndarray:
+    """Solve ``a x = b`` (or ``a.T x = b``) for ``a = I - Q`` ordered by outs (0, 1, 2).
+
+    Outs never go down within an inning, so ``a`` is block upper triangular with three
+    equal blocks and the system is solved by block back-substitution: three solves of a
+    third of the size (much faster than one large solve, and small enough that the BLAS
+    does not spread them over threads). Falls back to a dense solve if a table lets outs
+    go down.
+    """
+    n = a.shape[0]
+    m = n // 3
+    blk = [slice(0, m), slice(m, 2 * m), slice(2 * m, n)]
+    if n % 3 or a[m:, :m].any() or a[2 * m :, m : 2 * m].any():
+        return np.linalg.solve(a.T if transpose else a, b)
+    x = [None, None, None]
+    order = (0, 1, 2) if transpose else (2, 1, 0)
+    for i in order:
+        rhs = b[blk[i]].copy()
+        for j in range(3):
+            if x[j] is not None:
+                # Upper blocks a[i, j] (j > i), or for a.T the transposed a[j, i] (j < i).
+                rhs -= (a[blk[j], blk[i]].T if transpose else a[blk[i], blk[j]]) @ x[j]
+        x[i] = np.linalg.solve(a[blk[i], blk[i]].T if transpose else a[blk[i], blk[i]], rhs)
+    return np.concatenate(x)
+
+
 def runs_distribution_matrix(m: np.ndarray, max_runs: int) -> np.ndarray:
     """Runs-in-the-rest-of-the-inning distribution for every transient state.
 
-    Dynamic programming over runs: with ``A = (I - M0)^-1`` (moves that score nothing),
-    ``f_n = A (sum_{k>=1} M_k f_{n-k} + M_n[:, end])`` where ``f_n[s]`` = P(n runs | s).
-    The last column is the tail, ``max_runs`` or more. ``m`` may be block-structured
-    (any number of transient states with the absorbing state as the last column).
+    Dynamic programming over runs: with ``A = I - M0`` (moves that score nothing),
+    ``A f_n = sum_{k>=1} M_k f_{n-k} + M_n[:, end]`` where ``f_n[s]`` = P(n runs | s).
+    The last column is the tail, ``max_runs`` or more. ``m`` may hold any number of
+    transient states ordered by outs, with the absorbing state as the last column.
     """
     n_t = m.shape[1]
-    a_inv = np.linalg.inv(np.eye(n_t) - m[0, :, :n_t])
+    a = np.eye(n_t) - m[0, :, :n_t]
     k_max = m.shape[0] - 1
     f = np.zeros((n_t, max_runs + 1))
     for n in range(max_runs):
         rhs = m[n, :, n_t].copy() if n <= k_max else np.zeros(n_t)
         for k in range(1, min(n, k_max) + 1):
             rhs += m[k, :, :n_t] @ f[:, n - k]
-        if n == 0:
-            rhs = m[0, :, n_t]
-        f[:, n] = a_inv @ rhs
+        f[:, n] = solve_by_outs(a, rhs)
     f[:, max_runs] = np.clip(1.0 - f[:, :max_runs].sum(axis=1), 0.0, None)
     return f
 

@@ -9,7 +9,7 @@ from typing import Any
 import numpy as np
 
 from ._advancement import AdvancementTable
-from ._chain import _step, _table, as_probs, runs_distribution_matrix, split_by_runs
+from ._chain import _step, _table, as_probs, runs_distribution_matrix, solve_by_outs, split_by_runs
 from ._states import END, N_TRANSIENT, _check_state
 
 _N_SLOTS = 9
@@ -95,6 +95,10 @@ def lineup_runs(
     table = _table(advancement)
     p = _order(order_probs, table)
     n = N_TRANSIENT * _N_SLOTS
+    # Order the 216 states by outs, then slot, then bases, so I - Q is block upper
+    # triangular (outs never go down) and solve_by_outs can work on 72-state blocks.
+    states = np.arange(N_TRANSIENT)
+    pos = (states // 8) * (8 * _N_SLOTS) + np.arange(_N_SLOTS)[:, None] * 8 + states % 8  # [slot, s]
     q = np.zeros((n, n))
     exits = np.zeros((n, _N_SLOTS))
     step_runs = np.zeros(n)
@@ -102,26 +106,26 @@ def lineup_runs(
     k_max = max(m.shape[0] for m in splits) - 1
     big_m = np.zeros((k_max + 1, n, n + 1))
     for j in range(_N_SLOTS):
-        rows = slice(j * N_TRANSIENT, (j + 1) * N_TRANSIENT)
-        nxt = (j + 1) % _N_SLOTS
-        cols = slice(nxt * N_TRANSIENT, (nxt + 1) * N_TRANSIENT)
+        rows, nxt = pos[j], (j + 1) % _N_SLOTS
+        block = np.ix_(rows, pos[nxt])
         trans, runs = _step(p[j], table)
-        q[rows, cols] = trans[:, :N_TRANSIENT]
+        q[block] = trans[:, :N_TRANSIENT]
         exits[rows, nxt] = trans[:, END]
         step_runs[rows] = runs
         m = splits[j]
-        big_m[: m.shape[0], rows, cols] = m[:, :, :N_TRANSIENT]
-        big_m[: m.shape[0], rows, n] = m[:, :, END]
+        for k in range(m.shape[0]):
+            big_m[k][block] = m[k, :, :N_TRANSIENT]
+            big_m[k, rows, n] = m[k, :, END]
     a = np.eye(n) - q
-    solved = np.linalg.solve(a, np.column_stack([step_runs, exits]))
-    starts = np.arange(_N_SLOTS) * N_TRANSIENT  # (slot j, bases empty, 0 outs)
+    solved = solve_by_outs(a, np.column_stack([step_runs, exits]))
+    starts = pos[:, 0]  # (slot j, bases empty, 0 outs)
     runs_by_leadoff = solved[starts, 0]
     next_leadoff = solved[starts, 1:]
     # Expected visits from each start: columns of (I - Q)^-T at the start states.
     rhs = np.zeros((n, _N_SLOTS))
     rhs[starts, np.arange(_N_SLOTS)] = 1.0
-    visits = np.linalg.solve(a.T, rhs)  # visits[state, start]
-    pa_from_start = visits.reshape(_N_SLOTS, N_TRANSIENT, _N_SLOTS).sum(axis=1).T  # [start, slot]
+    visits = solve_by_outs(a, rhs, transpose=True)  # visits[state, start]
+    pa_from_start = visits[pos].sum(axis=1).T  # [start, slot]
 
     leadoff = np.zeros((_N_SLOTS, _N_SLOTS))
     leadoff[0, 0] = 1.0

@@ -140,3 +140,20 @@ def test_run_expectancy_grows_with_runners_and_falls_with_outs(league_rates):
     re = run_expectancy(league_rates(2019))
     assert (np.diff(re, axis=0) < 0).all()
     assert (re[:, 7] > re[:, 0]).all()
+
+
+@pytest.mark.parametrize("transpose", [False, True])
+def test_block_solver_matches_a_dense_solve(transpose):
+    from matchup_widgets.runs._chain import solve_by_outs
+
+    rng = np.random.default_rng(4)
+    q = rng.random((24, 24)) / 30
+    q[8:, :8] = 0.0
+    q[16:, 8:16] = 0.0  # outs never go down: block upper triangular
+    a = np.eye(24) - q
+    b = rng.random((24, 3))
+    ref = np.linalg.solve(a.T if transpose else a, b)  # numpy reference
+    assert_allclose(solve_by_outs(a, b, transpose=transpose), ref, rtol=1e-12)
+    a[20, 3] = -0.01  # a move that takes an out back: dense fallback
+    ref = np.linalg.solve(a.T if transpose else a, b)
+    assert_allclose(solve_by_outs(a, b, transpose=transpose), ref, rtol=1e-12)
