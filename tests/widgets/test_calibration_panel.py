@@ -1,0 +1,140 @@
+"""The calibration panel: values set as the browser would, outputs against the core's own numbers."""
+
+from __future__ import annotations
+
+import numpy as np
+import pandas as pd
+import pytest
+
+from matchup_widgets.data import OUTCOMES, load_pas
+from matchup_widgets.model import calibrate
+from matchup_widgets.widgets.calibration import CalibrationLab
+
+_BASE = np.array([0.22, 0.08, 0.01, 0.15, 0.045, 0.005, 0.03, 0.22, 0.23])
+_FAST = {"priors": (0, 50, 200), "n_boot": 20}
+
+
+def _league(seed: int = 5, n_pa: int = 8000) -> pd.DataFrame:
+    """A small invented league (10 batters, 5 pitchers) with per-player tilts; smoke data only."""
+    rng = np.random.default_rng(seed)
+    b, p = rng.integers(0, 10, n_pa), rng.integers(0, 5, n_pa)
+    probs = _BASE * np.exp(rng.normal(0, 0.3, (10, 9)))[b] * np.exp(rng.normal(0, 0.3, (5, 9)))[p]
+    probs /= probs.sum(axis=1, keepdims=True)
+    outcome = np.minimum((rng.random(n_pa)[:, None] > probs.cumsum(axis=1)).sum(axis=1), 8)
+    game = np.arange(n_pa) // 50
+    return pd.DataFrame(
+        {
+            "game_id": [f"g{g:04d}" for g in game],
+            "game_date": pd.Timestamp("2031-04-01") + pd.to_timedelta(game // 5, unit="D"),
+            "batter_id": [f"b{i}" for i in b],
+            "pitcher_id": [f"p{i}" for i in p],
+            "batter_name": [f"Batter Number{i}" for i in b],
+            "pitcher_name": [f"Pitcher Number{i}" for i in p],
+            "batter_hand": np.where(b % 3 == 0, "L", "R"),
+            "pitcher_hand": np.where(p % 2 == 0, "R", "L"),
+            "outcome": np.asarray(OUTCOMES)[outcome],
+        }
+    )
+
+
+class _Receiver:
+    """Stands in for the explorer: records what the panel sends."""
+
+    def __init__(self) -> None:
+        self.received: list[dict] = []
+
+    def apply_settings(self, **settings) -> None:
+        self.received.append(settings)
+
+
+@pytest.fixture(scope="module")
+def pas():
+    return load_pas(_league())
+
+
+@pytest.fixture(scope="module")
+def fitted(pas):
+    receiver = _Receiver()
+    lab = CalibrationLab(pas, explorer=receiver, progress=False, **_FAST)
+    lab.holdout.value = 0.3  # as the browser would
+    lab.seed.value = 4
+    lab.fit_button.click()
+    return lab, receiver
+
+
+def test_fit_uses_the_panels_options_and_shows_the_core_result(pas, fitted):
+    lab, _ = fitted
+    assert lab.status.last_error is None, lab.status.widget.value
+    ref = calibrate(pas, holdout_share=0.3, seed=4, progress=False, **_FAST)
+    r = lab.result_
+    assert r.pitcher_weight == pytest.approx(ref.pitcher_weight, rel=1e-12)
+    assert (r.batter_prior_pa, r.pitcher_prior_pa) == (ref.batter_prior_pa, ref.pitcher_prior_pa)
+    assert r.n_holdout_pa == ref.n_holdout_pa
+    assert f"Pitcher weight {ref.pitcher_weight:.2f}" in lab.summary.value
+    assert f"{ref.n_holdout_pa:,} plate appearances" in lab.summary.value
+
+
+def test_heat_map_shows_the_core_surface_with_the_optimum(fitted):
+    lab, _ = fitted
+    r = lab.result_
+    spec = lab.surface_chart.chart.to_dict()
+    cells = pd.DataFrame(spec["datasets"][spec["layer"][0]["data"]["name"]])
+    expected = r.surface[r.surface["pitcher_prior_pa"] == r.pitcher_prior_pa]
+    assert len(cells) == len(expected)
+    assert np.allclose(np.sort(cells["brier"].to_numpy()), np.sort(expected["brier"].to_numpy()), rtol=1e-12)
+    ring = spec["datasets"][spec["layer"][2]["data"]["name"]][0]
+    grid = np.sort(r.surface["pitcher_weight"].unique())
+    assert ring["pitcher_weight"] == grid[np.abs(grid - r.pitcher_weight).argmin()]
+    assert ring["batter_prior_pa"] == r.batter_prior_pa
+    lab.surface_y.value = "Pitcher prior (PA)"
+    spec = lab.surface_chart.chart.to_dict()
+    assert spec["layer"][0]["encoding"]["y"]["field"] == "pitcher_prior_pa"
+
+
+def test_skill_methods_and_reliability_tables_come_from_the_result(fitted):
+    lab, _ = fitted
+    r = lab.result_
+    t = lab.tables()
+    assert set(t) == {"settings", "brier_surface", "skill", "methods", "reliability"}
+    assert np.allclose(t["skill"]["skill"], list(r.skill_scores.values()), rtol=1e-12)
+    assert t["methods"]["method"].tolist() == ["linear", "odds-ratio", "two-stage"]
+    assert np.allclose(t["methods"]["brier"], r.methods["brier"], rtol=1e-12)
+    assert (t["methods"]["basis"] == "observed").all()
+    rel = lab.reliability_chart.chart.to_dict()
+    assert rel["facet"]["sort"] == list(OUTCOMES)
+
+
+def test_apply_pushes_the_fitted_settings(fitted):
+    lab, receiver = fitted
+    lab.apply_button.click()
+    assert lab.status.last_error is None, lab.status.widget.value
+    r = lab.result_
+    assert receiver.received[-1] == {
+        "method": "linear",
+        "pitcher_weight": r.pitcher_weight,
+        "batter_prior_pa": r.batter_prior_pa,
+        "pitcher_prior_pa": r.pitcher_prior_pa,
+        "basis": "observed",
+    }
+    assert f"pitcher weight {r.pitcher_weight:.2f}" in lab.applied.value
+
+
+def test_csv_export(fitted, tmp_path):
+    lab, _ = fitted
+    lab.csv_button.click()
+    assert 'download="calibration_brier_surface.csv"' in lab.downloads.value
+    paths = lab.write_csv(tmp_path)
+    back = pd.read_csv(tmp_path / "calibration_settings.csv")
+    assert back.loc[0, "pitcher_weight"] == pytest.approx(lab.result_.pitcher_weight, rel=1e-12)
+    assert len(paths) == 5
+
+
+def test_errors_show_in_the_panel_and_apply_needs_a_fit(pas):
+    lab = CalibrationLab(pas, progress=False, priors=(-5, 10), n_boot=20)
+    assert lab.apply_button.disabled
+    lab.fit_button.click()  # a bad grid: the core's message appears, the panel stays usable
+    assert lab.status.last_error is not None
+    assert "Fit failed" in lab.status.widget.value
+    assert not lab.fit_button.disabled
+    with pytest.raises(RuntimeError, match="no fit yet"):
+        lab.settings()
