@@ -133,7 +133,7 @@ class MatchupEstimate:
             "probabilities": probs,
             "intervals": {c: [float(lo), float(hi)] for c, lo, hi in
                           zip(self.intervals.index, self.intervals["lo"], self.intervals["hi"])},
-            "pa": {k: _number(v) for k, v in self.pa.items()},
+            "pa": {k: _number(round(float(v), 6)) for k, v in self.pa.items()},
             "effective_pa": float(self.effective_pa),
             "woba": self.woba,
             "runs_per_pa": self.runs_per_pa,
