@@ -23,7 +23,6 @@ from ._demo_truth import (
     expected_batted,
     stage1_probabilities,
 )
-from ._schema import OUTCOMES
 
 # Roster shape per team.
 N_BATTERS, N_STARTERS, N_RELIEVERS = 13, 5, 8

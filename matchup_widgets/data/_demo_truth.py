@@ -58,30 +58,41 @@ def _sigmoid(x: np.ndarray) -> np.ndarray:
     return 0.5 * (1.0 + np.tanh(0.5 * x))
 
 
-def _ev_parts(ev: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-    """Exit-velocity factors of ``f``: home-run carry ``A`` and, per ball type, the
-    outcome mix ``H`` (shape ``ev.shape + (4, 5)``) of a ball that stays in the park."""
+def _ev_parts(ev: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """Exit-velocity factors of ``f``: home-run carry ``A`` and, per ball type (last axis,
+    length 4), the hit probability of a ball kept in the park and its double and triple
+    parts (``hit * share``)."""
     ev = np.clip(ev, 0.0, 130.0)
     carry = _sigmoid((ev - 101.3) / 3.5)
     hard = _sigmoid((ev - 95.0) / 5.0)
-    hit = np.stack(
-        [
-            0.135 + 0.45 * _sigmoid((ev - 97.0) / 6.0),  # ground ball
-            0.37 + 0.42 * _sigmoid((ev - 84.0) / 7.0),  # line drive
-            0.07 + 0.50 * _sigmoid((ev - 99.0) / 4.0),  # fly ball
-            np.full_like(ev, 0.02),  # pop up
-        ],
+    hit = np.empty(ev.shape + (4,))
+    hit[..., 0] = 0.135 + 0.45 * _sigmoid((ev - 97.0) / 6.0)  # ground ball
+    hit[..., 1] = 0.37 + 0.42 * _sigmoid((ev - 84.0) / 7.0)  # line drive
+    hit[..., 2] = 0.07 + 0.50 * _sigmoid((ev - 99.0) / 4.0)  # fly ball
+    hit[..., 3] = 0.02  # pop up
+    double = np.zeros(ev.shape + (4,))
+    double[..., 0] = 0.06 + 0.12 * hard
+    double[..., 1] = 0.20 + 0.30 * hard
+    double[..., 2] = 0.25 + 0.50 * hard
+    triple = np.zeros(ev.shape + (4,))
+    triple[..., 0] = 0.004
+    triple[..., 1] = 0.012 + 0.02 * hard
+    triple[..., 2] = 0.04 + 0.09 * hard
+    return carry, hit, hit * double, hit * triple
+
+
+_GROUND = np.array([1.0, 0.0, 0.0, 0.0])
+
+
+def _mix(base, hit, hit_double, hit_triple) -> np.ndarray:
+    """Outcome mix (..., 4 types, 5 park outcomes) from the hit parts; linear in its inputs,
+    so it maps expectations to expectations. ``base`` is 1 (or the carry factor)."""
+    base = np.asarray(base)[..., None]
+    out = base - hit
+    return np.stack(
+        [hit - hit_double - hit_triple, hit_double, hit_triple, out * _GROUND, out * (1.0 - _GROUND)],
         axis=-1,
     )
-    double = np.stack([0.06 + 0.12 * hard, 0.20 + 0.30 * hard, 0.25 + 0.50 * hard, 0 * ev], axis=-1)
-    triple = np.stack([0 * ev + 0.004, 0.012 + 0.02 * hard, 0.04 + 0.09 * hard, 0 * ev], axis=-1)
-    single = 1.0 - double - triple
-    gb_type = np.array([1.0, 0.0, 0.0, 0.0])
-    mix = np.stack(
-        [hit * single, hit * double, hit * triple, (1.0 - hit) * gb_type, (1.0 - hit) * (1.0 - gb_type)],
-        axis=-1,
-    )
-    return carry, mix
 
 
 def _la_parts(la: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -94,13 +105,14 @@ def _la_parts(la: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     return window, types
 
 
-def _combine(carry, mix, window, types) -> np.ndarray:
-    # f_j = sum_t w_t(la) H_tj(ev) (1 - A(ev) W(la)) for the park outcomes, HR = A W.
-    park = np.einsum("...t,...tj->...j", types, mix) - np.einsum(
-        "...t,...tj->...j", types * window[..., None], mix * carry[..., None, None]
-    )
-    hr = (carry * window)[..., None]
-    return np.concatenate([park[..., :3], hr, park[..., 3:]], axis=-1)
+def _combine(hr, mix, carried, types, types_window) -> np.ndarray:
+    """Assemble f (or its expectation) from its factors.
+
+    ``park_j = sum_t w_t H_tj - sum_t (w_t W) (A H_tj)`` for the five park outcomes and
+    ``HR = A W``; returned in the order ``1B, 2B, 3B, HR, GB_OUT, AIR_OUT``.
+    """
+    park = np.einsum("...t,...tj->...j", types, mix) - np.einsum("...t,...tj->...j", types_window, carried)
+    return np.concatenate([park[..., :3], hr[..., None], park[..., 3:]], axis=-1)
 
 
 def batted_ball_probabilities(exit_velo: np.ndarray, launch_angle: np.ndarray) -> np.ndarray:
@@ -119,7 +131,7 @@ def batted_ball_probabilities(exit_velo: np.ndarray, launch_angle: np.ndarray) -
 
     Notes
     -----
-    ``f = A(ev) W(la)`` for a home run: ``A`` is a carry curve centred on 100.5 mph with a
+    ``f = A(ev) W(la)`` for a home run: ``A`` is a carry curve centred on 101.3 mph with a
     3.5 mph soft edge and ``W`` a launch-angle window peaking at 28 degrees, so home runs
     need high exit velocity at roughly 20-35 degrees and ground balls (below ~10 degrees)
     almost never leave the park. A ball kept in the park (probability ``1 - A W``) takes
@@ -131,7 +143,11 @@ def batted_ball_probabilities(exit_velo: np.ndarray, launch_angle: np.ndarray) -
     function of launch angle, which makes the oracle's integral exact to quadrature.
     """
     ev, la = np.broadcast_arrays(np.asarray(exit_velo, float), np.asarray(launch_angle, float))
-    return _combine(*_ev_parts(ev), *_la_parts(la))
+    carry, hit, hit_double, hit_triple = _ev_parts(ev)
+    window, types = _la_parts(la)
+    mix = _mix(1.0, hit, hit_double, hit_triple)
+    carried = mix * carry[..., None, None]
+    return _combine(carry * window, mix, carried, types, types * window[..., None])
 
 
 def stage1_probabilities(
@@ -182,18 +198,26 @@ def expected_batted(
     x, w = _hermite_nodes(n_nodes)
 
     def integrate(mu, sd, parts):
+        """One-dimensional expectations of every factor, once per distinct mean."""
         uniq, inverse = np.unique(np.asarray(mu, float).ravel(), return_inverse=True)
         pieces = []
         for start in range(0, len(uniq), chunk):
             grid = uniq[start : start + chunk, None] + sd * x  # (k, n_nodes)
             pieces.append([np.einsum("kn...,n->k...", part, w) for part in parts(grid)])
-        stacked = [np.concatenate(p) for p in zip(*pieces)]
-        return [s[inverse] for s in stacked]
+        return [np.concatenate(p)[inverse] for p in zip(*pieces)]
 
-    carry_mix = lambda grid: (lambda a, h: (a, h, a[..., None, None] * h))(*_ev_parts(grid))  # noqa: E731
-    window_types = lambda grid: (lambda wdw, t: (wdw, t, t * wdw[..., None]))(*_la_parts(grid))  # noqa: E731
-    e_a, e_h, e_ah = integrate(mu_ev, EV_SD, carry_mix)
-    e_w, e_t, e_tw = integrate(mu_la, LA_SD, window_types)
-    park = np.einsum("kt,ktj->kj", e_t, e_h) - np.einsum("kt,ktj->kj", e_tw, e_ah)
-    hr = (e_a * e_w)[:, None]
-    return np.concatenate([park[:, :3], hr, park[:, 3:]], axis=1)
+    def ev_factors(grid):
+        carry, hit, hd, ht = _ev_parts(grid)
+        c = carry[..., None]
+        return carry, hit, hd, ht, c * hit, c * hd, c * ht
+
+    def la_factors(grid):
+        window, types = _la_parts(grid)
+        return window, types, types * window[..., None]
+
+    e_a, e_hit, e_hd, e_ht, e_ahit, e_ahd, e_aht = integrate(mu_ev, EV_SD, ev_factors)
+    e_w, e_t, e_tw = integrate(mu_la, LA_SD, la_factors)
+    # f is linear in each factor, and EV and LA are independent: E f = f(E factors).
+    mix = _mix(1.0, e_hit, e_hd, e_ht)
+    carried = _mix(e_a, e_ahit, e_ahd, e_aht)
+    return _combine(e_a * e_w, mix, carried, e_t, e_tw)

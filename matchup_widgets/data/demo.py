@@ -87,6 +87,13 @@ from ._schema import OUTCOMES
 
 __all__ = [
     "DEMO_FILES",
+    "EV_MEAN",
+    "EV_SD",
+    "LA_MEAN",
+    "LA_SD",
+    "LEAGUE_STAGE1",
+    "PLATOON_EV",
+    "PLATOON_STAGE1",
     "DemoLeague",
     "batted_ball_probabilities",
     "demo_path",
@@ -178,8 +185,8 @@ def make_demo_league(
         if value < 1:
             msg = f"{name} must be at least 1, got {value}."
             raise ValueError(msg)
-    rng_players, rng_plan, rng_play, rng_gaps, rng_names = (
-        np.random.default_rng(s) for s in np.random.SeedSequence(seed).spawn(5)
+    rng_players, rng_plan, rng_play, rng_gaps = (
+        np.random.default_rng(s) for s in np.random.SeedSequence(seed).spawn(4)
     )
     players, teams = make_players(n_teams, rng_players)
     sched = make_schedule(n_teams, n_seasons, n_games)
@@ -198,13 +205,10 @@ def _add_namesakes(players: pd.DataFrame, lineup: np.ndarray) -> None:
     """
     counts = np.bincount(lineup.ravel(), minlength=len(players))
     team = players["team_id"].to_numpy()
-    first, second = players["team_id"].iloc[0], None
-    others = team[(players["role"] == "batter").to_numpy() & (team != first)]
-    if len(others) == 0:
-        return
-    second = others[0]
-    a = int(np.argmax(np.where(team == first, counts, -1)))
-    b = int(np.argmax(np.where(team == second, counts, -1)))
+    batter = (players["role"] == "batter").to_numpy()
+    first, second = team[0], team[batter & (team != team[0])][0]  # n_teams >= 2
+    a = int(np.argmax(np.where(batter & (team == first), counts, -1)))
+    b = int(np.argmax(np.where(batter & (team == second), counts, -1)))
     players.loc[b, "name"] = players.loc[a, "name"]
 
 
