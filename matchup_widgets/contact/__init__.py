@@ -20,6 +20,15 @@ from ._buckets import (
     bucket_shares,
     is_hard_hit,
 )
+from ._advance import (
+    TIERED_CODES,
+    TieredHits,
+    tiered_advancement,
+    tiered_hits_available,
+    tiered_probabilities,
+    weak_shares_from_mix,
+)
+from ._basis import contact_outcome_counts
 from ._cache import clear_contact_cache
 from ._dataset import (
     contact_predictions,
@@ -28,6 +37,7 @@ from ._dataset import (
     tier_shares,
 )
 from ._model import ContactModel, contact_model_for, multiclass_log_loss
+from ._mix import matchup_contact, matchup_contact_mix, shrink_shares
 from ._tiers import (
     PUBLISHED_RUN_WEIGHTS,
     TIER_LABELS,
@@ -43,14 +53,16 @@ from ._tiers import (
 __all__ = [
     "BATTED_BALL_TYPES",
     "BATTED_BALL_TYPE_CUTS",
+    "ContactModel",
+    "ContactTiers",
     "EV_EDGES",
     "HARD_HIT_MPH",
     "LA_EDGES",
     "PUBLISHED_RUN_WEIGHTS",
+    "TIERED_CODES",
     "TIER_LABELS",
     "TIER_QUANTILES",
-    "ContactModel",
-    "ContactTiers",
+    "TieredHits",
     "assign_tiers",
     "band_labels",
     "batted_ball_profile",
@@ -62,12 +74,20 @@ __all__ = [
     "build_tiers",
     "clear_contact_cache",
     "contact_model_for",
+    "contact_outcome_counts",
     "contact_predictions",
     "contact_tiers",
     "expected_run_value",
     "is_hard_hit",
     "league_bucket_table",
+    "matchup_contact",
+    "matchup_contact_mix",
     "multiclass_log_loss",
+    "shrink_shares",
     "tier_cut_points",
     "tier_shares",
+    "tiered_advancement",
+    "tiered_hits_available",
+    "tiered_probabilities",
+    "weak_shares_from_mix",
 ]

@@ -128,7 +128,7 @@ def bucket_index(
 def bucket_labels(
     *, ev_edges: Sequence[float] = EV_EDGES, la_edges: Sequence[float] = LA_EDGES
 ) -> pd.DataFrame:
-    """One row per grid cell, in flat-index order: ``ev_band``, ``la_band``, ``bucket``.
+    """One row per grid cell, in flat-index order: ``exit_velo_bin``, ``launch_angle_bin``, ``bucket``.
 
     Examples
     --------
@@ -140,7 +140,7 @@ def bucket_labels(
     ev_col = np.repeat(ev_l, len(la_l))
     la_col = np.tile(la_l, len(ev_l))
     bucket = [f"EV {a} | LA {b}" for a, b in zip(ev_col, la_col)]
-    return pd.DataFrame({"ev_band": ev_col, "la_band": la_col, "bucket": bucket})
+    return pd.DataFrame({"exit_velo_bin": ev_col, "launch_angle_bin": la_col, "bucket": bucket})
 
 
 def group_codes(frame: pd.DataFrame, keys: list[str]) -> tuple[np.ndarray, pd.DataFrame]:
@@ -165,7 +165,7 @@ def bucket_shares(
     role: str,
     ev_edges: Sequence[float] = EV_EDGES,
     la_edges: Sequence[float] = LA_EDGES,
-    seasons: Sequence[int] | int | None = None,
+    seasons: tuple[int, int] | None = None,
 ) -> pd.DataFrame:
     """Counts and shares of each exit-velocity x launch-angle bucket per player and split.
 
@@ -177,14 +177,14 @@ def bucket_shares(
         Whose balls to count.
     ev_edges, la_edges : sequence of float
         Interior band edges (mph, degrees); the outer bands are open-ended.
-    seasons : int or sequence of int, optional
-        Keep only these seasons.
+    seasons : (int, int), optional
+        Inclusive (first, last) seasons; all seasons when None.
 
     Returns
     -------
     pandas.DataFrame
         Long table, the whole grid for every player and platoon split that has a measured
-        ball: ``player_id``, ``batter_hand``, ``pitcher_hand``, ``ev_band``, ``la_band``,
+        ball: ``player_id``, ``batter_hand``, ``pitcher_hand``, ``exit_velo_bin``, ``launch_angle_bin``,
         ``bucket``, ``n`` (balls in the bucket), ``n_measured`` (balls with both
         measurements in that player and split) and ``share`` (``n / n_measured``).
         Batted balls without a measurement are left out of the grid; see
@@ -222,7 +222,7 @@ def bucket_shares(
 
 
 def batted_ball_profile(
-    pas: Any, *, role: str, seasons: Sequence[int] | int | None = None
+    pas: Any, *, role: str, seasons: tuple[int, int] | None = None
 ) -> pd.DataFrame:
     """Batted-ball types, hard-hit rate and average contact per player and platoon split.
 

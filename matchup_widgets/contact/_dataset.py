@@ -16,7 +16,7 @@ from matchup_widgets.data import BASE_OUT_COLUMNS, BATTED
 
 from ._buckets import EV_EDGES, LA_EDGES, bucket_index, bucket_labels, group_codes
 from ._cache import dataset_cache
-from ._frames import batted_rows, check_role, frame_of, measured_mask, seasons_of
+from ._frames import batted_rows, check_role, frame_of, measured_mask, season_mask, seasons_of
 from ._model import ContactModel, contact_model_for
 from ._tiers import (
     TIER_QUANTILES,
@@ -140,11 +140,10 @@ def ball_tiers(pred: pd.DataFrame, tiers: ContactTiers) -> np.ndarray:
     return assign_tiers(expected_run_value(prob_matrix(pred), tiers.weights), tiers.cut_points)
 
 
-def _select(pred: pd.DataFrame, seasons: Any) -> pd.DataFrame:
+def _select(pred: pd.DataFrame, seasons: tuple[int, int] | None) -> pd.DataFrame:
     if seasons is None:
         return pred
-    wanted = [seasons] if np.isscalar(seasons) else list(seasons)
-    return pred[pred["season"].isin(wanted).to_numpy()]
+    return pred[season_mask(pred["season"].to_numpy(), seasons)]
 
 
 def tier_shares(
@@ -153,7 +152,7 @@ def tier_shares(
     role: str,
     tiers: ContactTiers | None = None,
     model: ContactModel | None = None,
-    seasons: Sequence[int] | int | None = None,
+    seasons: tuple[int, int] | None = None,
 ) -> pd.DataFrame:
     """Counts and shares of each contact tier per player and platoon split.
 
@@ -164,7 +163,8 @@ def tier_shares(
     tiers : ContactTiers, optional
         The tier scale; by default the dataset's own (:func:`contact_tiers`).
     model : ContactModel, optional
-    seasons : int or sequence of int, optional
+    seasons : (int, int), optional
+        Inclusive (first, last) seasons; all seasons when None.
 
     Returns
     -------
@@ -217,7 +217,7 @@ def league_bucket_table(
     Returns
     -------
     pandas.DataFrame
-        One row per bucket in grid order: ``ev_band``, ``la_band``, ``bucket``, ``n``,
+        One row per bucket in grid order: ``exit_velo_bin``, ``launch_angle_bin``, ``bucket``, ``n``,
         ``share`` and one column per ``BATTED`` code (mean modeled probability; the
         league's batted-ball mix for empty buckets).
 

@@ -8,7 +8,7 @@ with a ``.frame`` attribute) or a pandas DataFrame that follows the table contra
 
 from __future__ import annotations
 
-from collections.abc import Iterable, Sequence
+from collections.abc import Iterable
 from typing import Any
 
 import numpy as np
@@ -64,12 +64,30 @@ def seasons_of(frame: pd.DataFrame) -> pd.Series:
     return pd.to_datetime(frame["game_date"]).dt.year
 
 
-def select_seasons(frame: pd.DataFrame, seasons: Sequence[int] | int | None) -> pd.DataFrame:
-    """Rows of the given season(s); all rows when ``seasons`` is None."""
+def season_mask(values: pd.Series | np.ndarray, seasons: tuple[int, int] | None) -> np.ndarray:
+    """True for rows whose season lies in the inclusive ``(first, last)`` pair (all when None).
+
+    The same convention as :func:`matchup_widgets.data.outcome_counts`.
+    """
+    values = np.asarray(values)
+    if seasons is None:
+        return np.ones(len(values), dtype=bool)
+    try:
+        first, last = (int(s) for s in seasons)
+    except (TypeError, ValueError):
+        msg = f"seasons must be an inclusive (first, last) pair of years or None, got {seasons!r}."
+        raise ValueError(msg) from None
+    if first > last:
+        msg = f"seasons=({first}, {last}): the first season is after the last; give (first, last)."
+        raise ValueError(msg)
+    return (values >= first) & (values <= last)
+
+
+def select_seasons(frame: pd.DataFrame, seasons: tuple[int, int] | None) -> pd.DataFrame:
+    """Rows whose season lies in the inclusive ``(first, last)`` pair; all rows when None."""
     if seasons is None:
         return frame
-    wanted = [seasons] if np.isscalar(seasons) else list(seasons)
-    return frame[seasons_of(frame).isin(wanted).to_numpy()]
+    return frame[season_mask(seasons_of(frame).to_numpy(), seasons)]
 
 
 def batted_rows(frame: pd.DataFrame, *, purpose: str) -> pd.DataFrame:
