@@ -9,6 +9,7 @@ from ._advancement import (
     AdvancementTable,
     default_advancement,
     estimate_advancement,
+    hit_row,
     identity_runs,
 )
 from ._chain import run_expectancy, runs_distribution, runs_per_9, runs_per_inning
@@ -26,6 +27,7 @@ __all__ = [
     "STATES",
     "default_advancement",
     "estimate_advancement",
+    "hit_row",
     "identity_runs",
     "linear_weights",
     "lineup_runs",

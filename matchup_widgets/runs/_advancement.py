@@ -17,7 +17,7 @@ import pandas as pd
 
 from ..data import OUTCOMES, DataError
 from ..data import ON_BASE as _ON_BASE
-from ._default_table import build_default_arrays
+from ._default_table import build_default_arrays, hit_arrays
 from ._states import END, N_STATES, N_TRANSIENT
 
 #: Default minimum number of plate appearances in an (outcome, state) cell before an
@@ -171,6 +171,74 @@ class AdvancementTable:
         return self.transitions[i].copy(), self.runs[i].copy()
 
 
+def _by_outs(value: Any, name: str) -> tuple[float, float, float] | None:
+    if value is None:
+        return None
+    arr = np.asarray(value, dtype=float)
+    if arr.ndim == 0:
+        arr = np.full(3, float(arr))
+    if arr.shape != (3,) or not ((arr >= 0) & (arr <= 1)).all():
+        msg = (
+            f"{name} must be a probability in [0, 1] or three of them (for 0, 1 and 2 outs); "
+            f"got {value!r}."
+        )
+        raise ValueError(msg)
+    return (float(arr[0]), float(arr[1]), float(arr[2]))
+
+
+def hit_row(
+    code: str,
+    *,
+    scores_from_second: Any = None,
+    first_to_third: Any = None,
+    scores_from_first: Any = None,
+) -> tuple[np.ndarray, np.ndarray]:
+    """Advancement ``(T, R)`` for a single or double with its own runner-advance shares.
+
+    Meant for extra rows such as soft and hard singles (see
+    :meth:`AdvancementTable.with_extra_rows`); options left out keep the default table's
+    common-practice values. Each share is one probability or three (for 0, 1, 2 outs).
+
+    Parameters
+    ----------
+    code : {"1B", "2B"}
+    scores_from_second : float or sequence of 3, optional
+        Single: runner on second scores (otherwise stops at third).
+    first_to_third : float or sequence of 3, optional
+        Single: runner on first takes third when it is free (otherwise second).
+    scores_from_first : float or sequence of 3, optional
+        Double: runner on first scores (otherwise stops at third).
+
+    Returns
+    -------
+    (ndarray, ndarray)
+        Transitions and runs, each shaped (25, 25).
+
+    Examples
+    --------
+    >>> t, r = hit_row("1B", scores_from_second=0.3)
+    >>> float(t[2, 1]), float(r[2, 1])  # runner on 2nd, 0 outs: scores 30% of the time
+    (0.3, 1.0)
+    """
+    if code == "1B":
+        if scores_from_first is not None:
+            msg = "scores_from_first applies to doubles ('2B'), not singles."
+            raise ValueError(msg)
+    elif code == "2B":
+        if scores_from_second is not None or first_to_third is not None:
+            msg = "scores_from_second and first_to_third apply to singles ('1B'), not doubles."
+            raise ValueError(msg)
+    else:
+        msg = f"hit_row builds rows for '1B' or '2B'; got {code!r}. Copy other rows with AdvancementTable.row."
+        raise ValueError(msg)
+    return hit_arrays(
+        code,
+        _by_outs(scores_from_second, "scores_from_second"),
+        _by_outs(first_to_third, "first_to_third"),
+        _by_outs(scores_from_first, "scores_from_first"),
+    )
+
+
 @lru_cache(maxsize=1)
 def identity_runs() -> np.ndarray:
     """Runs implied by the runs-scored identity for each (from, to) pair, shape (25, 25).
@@ -178,6 +246,11 @@ def identity_runs() -> np.ndarray:
     ``runs = (runners before + outs before + 1) - (runners after + outs after)``
     (common practice: every batter ends the play scored, out or on base). Pairs with a
     negative value cannot happen and get 0; moves into the three-out state get 0 here.
+
+    Examples
+    --------
+    >>> float(identity_runs()[7, 0])  # bases loaded, 0 outs -> bases empty, 0 outs: a grand slam
+    4.0
     """
     from ._states import STATE_OUTS, STATE_RUNNERS
 

@@ -135,6 +135,16 @@ def run_expectancy(probs: Any, *, advancement: AdvancementTable | None = None) -
 def runs_per_inning(probs: Any, *, advancement: AdvancementTable | None = None) -> float:
     """Expected runs in an inning started with bases empty and no outs.
 
+    Parameters
+    ----------
+    probs : array-like or mapping
+        Outcome distribution (``OUTCOMES`` order or ``{code: p}``), summing to 1.
+    advancement : AdvancementTable, optional
+
+    Returns
+    -------
+    float
+
     Examples
     --------
     >>> runs_per_inning({"BB": 0.5, "K": 0.5})
@@ -145,6 +155,17 @@ def runs_per_inning(probs: Any, *, advancement: AdvancementTable | None = None) 
 
 def runs_per_9(probs: Any, *, advancement: AdvancementTable | None = None) -> float:
     """Expected runs in nine innings when every batter follows ``probs``.
+
+    Parameters
+    ----------
+    probs : array-like or mapping
+        Outcome distribution (``OUTCOMES`` order or ``{code: p}``), summing to 1.
+    advancement : AdvancementTable, optional
+
+    Returns
+    -------
+    float
+        ``9 * runs_per_inning(probs)``.
 
     Examples
     --------

@@ -71,18 +71,18 @@ def _forced(bases: int) -> list[Branch]:
     return [(1.0, 0, 7, 1)]
 
 
-def _single(bases: int, outs: int) -> list[Branch]:
+def _single(bases: int, outs: int, score2: float | None = None, first3: float | None = None) -> list[Branch]:
     on1, on2, on3 = _bits(bases)
     runs0 = int(on3)
+    a = SINGLE_SCORES_FROM_SECOND[outs] if score2 is None else score2
+    b = SINGLE_FIRST_TO_THIRD[outs] if first3 is None else first3
     # Runner on second: scores (third free) or stops at third.
-    second = [(SINGLE_SCORES_FROM_SECOND[outs], 1, 0), (1 - SINGLE_SCORES_FROM_SECOND[outs], 0, 4)]
-    if not on2:
-        second = [(1.0, 0, 0)]
+    second = [(a, 1, 0), (1 - a, 0, 4)] if on2 else [(1.0, 0, 0)]
     out: list[Branch] = []
     for p2, r2, b2 in second:
         third_free = b2 == 0
         if on1 and third_free:
-            first = [(SINGLE_FIRST_TO_THIRD[outs], 4), (1 - SINGLE_FIRST_TO_THIRD[outs], 2)]
+            first = [(b, 4), (1 - b, 2)]
         elif on1:
             first = [(1.0, 2)]
         else:
@@ -92,12 +92,12 @@ def _single(bases: int, outs: int) -> list[Branch]:
     return out
 
 
-def _double(bases: int, outs: int) -> list[Branch]:
+def _double(bases: int, outs: int, score1: float | None = None) -> list[Branch]:
     on1, on2, on3 = _bits(bases)
     runs0 = int(on2) + int(on3)
     if not on1:
         return [(1.0, 0, 2, runs0)]
-    p = DOUBLE_SCORES_FROM_FIRST[outs]
+    p = DOUBLE_SCORES_FROM_FIRST[outs] if score1 is None else score1
     return [(p, 0, 2, runs0 + 1), (1 - p, 0, 6, runs0)]
 
 
@@ -165,6 +165,41 @@ def _branches(code: str, bases: int, outs: int) -> list[Branch]:
     raise KeyError(msg)  # pragma: no cover
 
 
+def _fill(branches, trans: np.ndarray, runs: np.ndarray) -> None:
+    """Write one outcome's branches (a function of bases, outs) into (25, 25) arrays."""
+    for s in range(N_TRANSIENT):
+        outs, bases = divmod(s, 8)
+        for p, added, after, scored in branches(bases, outs):
+            if p == 0.0:
+                continue
+            new_outs = outs + added
+            to = END if new_outs >= 3 else new_outs * 8 + after
+            trans[s, to] += p
+            # Several branches land on one cell only with the same runs (runs identity).
+            runs[s, to] = 0 if to == END else scored
+    trans[END, END] = 1.0
+
+
+def hit_arrays(
+    code: str,
+    score2: tuple[float, float, float] | None,
+    first3: tuple[float, float, float] | None,
+    score1: tuple[float, float, float] | None,
+) -> tuple[np.ndarray, np.ndarray]:
+    """``(T, R)`` for a single or double with its own runner-advance shares by outs."""
+    trans = np.zeros((N_STATES, N_STATES))
+    runs = np.zeros((N_STATES, N_STATES))
+    if code == "1B":
+        def branches(bases: int, outs: int) -> list[Branch]:
+            return _single(bases, outs, None if score2 is None else score2[outs],
+                           None if first3 is None else first3[outs])
+    else:
+        def branches(bases: int, outs: int) -> list[Branch]:
+            return _double(bases, outs, None if score1 is None else score1[outs])
+    _fill(branches, trans, runs)
+    return trans, runs
+
+
 def build_default_arrays() -> tuple[np.ndarray, np.ndarray]:
     """Return ``(T, R)``, each shaped ``(len(OUTCOMES), 25, 25)``, for the default table.
 
@@ -175,15 +210,5 @@ def build_default_arrays() -> tuple[np.ndarray, np.ndarray]:
     trans = np.zeros((n, N_STATES, N_STATES))
     runs = np.zeros((n, N_STATES, N_STATES))
     for i, code in enumerate(OUTCOMES):
-        for s in range(N_TRANSIENT):
-            outs, bases = divmod(s, 8)
-            for p, added, after, scored in _branches(code, bases, outs):
-                if p == 0.0:
-                    continue
-                new_outs = outs + added
-                to = END if new_outs >= 3 else new_outs * 8 + after
-                trans[i, s, to] += p
-                # Several branches may land on the same cell only with the same runs.
-                runs[i, s, to] = 0 if to == END else scored
-        trans[i, END, END] = 1.0
+        _fill(lambda bases, outs, code=code: _branches(code, bases, outs), trans[i], runs[i])
     return trans, runs

@@ -143,6 +143,12 @@ def lineup_runs(
     )
 
 
+def _check_count(value: Any, name: str) -> None:
+    if not (isinstance(value, (int, np.integer)) and not isinstance(value, bool) and value >= 1):
+        msg = f"{name} must be a whole number >= 1; got {value!r}."
+        raise ValueError(msg)
+
+
 def _pick(u: np.ndarray, cum: np.ndarray) -> np.ndarray:
     """Inverse-CDF draw per row: index of the first cumulative value above ``u``."""
     idx = (u[:, None] >= cum).sum(axis=1)
@@ -195,6 +201,18 @@ def simulate_innings(
     A cross-check for :func:`run_expectancy` and :func:`runs_distribution`; all innings
     are played in parallel with numpy.
 
+    Parameters
+    ----------
+    probs : array-like or mapping
+        Outcome distribution of every batter.
+    n_innings : int
+        Number of innings to play.
+    outs, bases : int
+        Starting base-out state.
+    advancement : AdvancementTable, optional
+    seed : int, optional
+        Seed of the random generator.
+
     Returns
     -------
     ndarray of float, shape (n_innings,)
@@ -207,6 +225,7 @@ def simulate_innings(
     True
     """
     _check_state(outs, bases)
+    _check_count(n_innings, "n_innings")
     table = _table(advancement)
     p = as_probs(probs, table)
     if p.ndim != 1:
@@ -227,6 +246,17 @@ def simulate_games(
 ) -> np.ndarray:
     """Monte Carlo runs per inning for a batting order, carrying the lineup across innings.
 
+    Parameters
+    ----------
+    order_probs : array-like, shape (9, n_outcomes), or list of nine {code: p}
+        Each slot's outcome distribution, in batting order.
+    n_games : int
+        Games played in parallel.
+    innings : int, default 9
+    advancement : AdvancementTable, optional
+    seed : int, optional
+        Seed of the random generator.
+
     Returns
     -------
     ndarray of float, shape (n_games, innings)
@@ -237,6 +267,8 @@ def simulate_games(
     >>> runs.shape, bool(abs(runs.sum(axis=1).mean() - 9.0) < 0.5)
     ((2000, 9), True)
     """
+    _check_count(n_games, "n_games")
+    _check_count(innings, "innings")
     table = _table(advancement)
     p = _order(order_probs, table)
     rng = np.random.default_rng(seed)

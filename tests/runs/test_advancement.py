@@ -200,3 +200,43 @@ def test_demo_league_obeys_the_identity(repo_root):
     assert ((before - after).to_numpy() == live["runs_on_play"].to_numpy()).all()
     est = estimate_advancement(frame)
     assert est.counts.sum() == len(rows)
+
+
+def test_hit_row_defaults_reproduce_the_table_and_options_change_it():
+    from matchup_widgets.runs import hit_row
+
+    table = default_advancement()
+    for code in ("1B", "2B"):
+        t, r = hit_row(code)
+        assert_allclose(t, table.row(code)[0], atol=0)
+        assert_allclose(r, table.row(code)[1], atol=0)
+    t, r = hit_row("1B", scores_from_second=[0.2, 0.3, 0.5], first_to_third=0.0)
+    assert_allclose(t[[2, 10, 18], [1, 9, 17]], [0.2, 0.3, 0.5])
+    assert t[1, 5] == 0.0 and t[1, 3] == 1.0  # nobody goes first to third
+    t, _ = hit_row("2B", scores_from_first=1.0)
+    assert t[1, 2] == 1.0
+    # A softer single is worth less than the default one.
+    soft = table.with_extra_rows({"1B_soft": hit_row("1B", scores_from_second=0.3)}, on_base=["1B_soft"])
+    from matchup_widgets.runs import linear_weights
+
+    p = np.append(np.array([0.22, 0.08, 0.01, 0.10, 0.045, 0.005, 0.03, 0.22, 0.24]), 0.05)
+    lw = linear_weights(p, advancement=soft)
+    assert lw["1B_soft"] < lw["1B"]
+
+
+@pytest.mark.parametrize(
+    ("kwargs", "match"),
+    [
+        ({"code": "3B"}, "'1B' or '2B'"),
+        ({"code": "1B", "scores_from_first": 0.5}, "applies to doubles"),
+        ({"code": "2B", "first_to_third": 0.5}, "apply to singles"),
+        ({"code": "1B", "scores_from_second": 1.5}, r"probability in \[0, 1\]"),
+        ({"code": "1B", "scores_from_second": [0.5, 0.5]}, "three of them"),
+    ],
+)
+def test_hit_row_checks_its_options(kwargs, match):
+    from matchup_widgets.runs import hit_row
+
+    code = kwargs.pop("code")
+    with pytest.raises(ValueError, match=match):
+        hit_row(code, **kwargs)
