@@ -64,7 +64,7 @@ def _read_rates(path: str, *, normalize: bool) -> dict[str, float]:
 
 
 def _league_from_data(args: argparse.Namespace) -> tuple[dict[str, float], Any, dict[str, Any]]:
-    from ..data import BASE_OUT_COLUMNS, OUTCOMES, league_counts, load_pas
+    from ..data import BASE_OUT_COLUMNS, OUTCOMES, as_table, league_counts, load_pas
     from ..runs import estimate_advancement
 
     pas = load_pas(args.data)
@@ -84,7 +84,7 @@ def _league_from_data(args: argparse.Namespace) -> tuple[dict[str, float], Any, 
         raise ValueError(msg)
     table = None
     if has_base_out and args.advancement != "default":
-        t = pas.table
+        t = as_table(pas)
         if seasons:
             t = t.filter((t.season >= seasons[0]) & (t.season <= seasons[1]))
         table = estimate_advancement(t, min_count=args.min_count)

@@ -56,6 +56,11 @@ class AdvancementTable:
     n_skipped: int = 0
 
     def __post_init__(self) -> None:
+        # Own float copies, frozen below, so a caller's arrays are never changed.
+        object.__setattr__(self, "transitions", np.array(self.transitions, dtype=float))
+        object.__setattr__(self, "runs", np.array(self.runs, dtype=float))
+        object.__setattr__(self, "outcomes", tuple(self.outcomes))
+        object.__setattr__(self, "on_base", tuple(self.on_base))
         k = len(self.outcomes)
         for name, arr in (("transitions", self.transitions), ("runs", self.runs)):
             if arr.shape != (k, N_STATES, N_STATES):

@@ -155,3 +155,14 @@ def test_one_json_object_from_the_console(rates_file):
         capture_output=True, text=True, check=True, timeout=120,
     ).stdout
     assert out.count("\n") == 1 and _KEYS <= set(json.loads(out))
+
+
+def test_seasons_limit_rates_and_advancement(capsys, tmp_path):
+    first, second = _plays(1200, seed=6), _plays(800, seed=7)
+    second["game_id"] = "n" + second["game_id"]
+    second["game_date"] = second["game_date"] + pd.DateOffset(years=1)
+    path = tmp_path / "two.parquet"
+    pd.concat([first, second], ignore_index=True).to_parquet(path)
+    code, d = _run_json(capsys, "--data", path, "--seasons", 2032, 2032)
+    assert code == 0
+    assert d["advancement"]["n_pa"] == 800 and d["advancement"]["pa_with_base_out"] == 800
