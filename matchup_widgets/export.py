@@ -12,6 +12,7 @@ import functools
 import html
 from collections.abc import Mapping
 from pathlib import Path
+from typing import Any
 import altair as alt
 import pandas as pd
 
@@ -197,3 +198,138 @@ def csv_links_html(tables: Mapping[str, pd.DataFrame], *, prefix: str = "") -> s
         )
     return "<div>Numbers behind the charts: " + " ".join(links) + "</div>"
 
+
+
+def _settings_line(s: Mapping[str, Any]) -> str:
+    """The model settings in words, with the weights the chosen method uses."""
+    method = s.get("method", "linear")
+    if method == "two-stage":
+        first = s.get("first_weight") if s.get("first_weight") is not None else s.get("pitcher_weight")
+        in_play = s.get("in_play_weight") if s.get("in_play_weight") is not None else s.get("pitcher_weight")
+        weights = f"pitcher weights {first:g} (strikeout, walk, home run) and {in_play:g} (in play)"
+    elif method == "odds-ratio":
+        weights = f"exponents batter {s.get('batter_exponent', 1.0):g}, pitcher {s.get('pitcher_exponent', 1.0):g}"
+    else:
+        weights = f"pitcher weight {s.get('pitcher_weight', 0.5):.2f}"
+    seasons = s.get("seasons")
+    seasons_text = "all seasons" if not seasons else f"seasons {seasons[0]}-{seasons[1]}"
+    return (
+        f"Settings: {method} blend, {weights}; priors batter {s.get('batter_prior_pa', 0):g} PA, "
+        f"pitcher {s.get('pitcher_prior_pa', 0):g} PA; {s.get('basis', 'observed')} basis; {seasons_text}"
+    )
+
+
+def card_tables(estimate: Any) -> dict[str, pd.DataFrame]:
+    """The numbers behind a matchup card (also its CSV export).
+
+    Parameters
+    ----------
+    estimate : MatchupEstimate
+        From :meth:`matchup_widgets.model.MatchupModel.predict`.
+
+    Returns
+    -------
+    dict of str to DataFrame
+        ``outcomes`` (code, label, matchup probability, interval ends, league), ``summary``
+        (rates, wOBA and runs per PA of matchup, batter, pitcher, league) and ``facts``
+        (one row: players, split, PA counts, interval level and every setting).
+    """
+    from matchup_widgets.data import OUTCOME_LABELS, OUTCOMES
+
+    codes = list(OUTCOMES)
+    outcomes = pd.DataFrame(
+        {
+            "outcome": codes,
+            "label": [OUTCOME_LABELS[c] for c in codes],
+            "matchup": estimate.probabilities[codes].to_numpy(dtype=float),
+            "interval_low": estimate.intervals.loc[codes, "lo"].to_numpy(dtype=float),
+            "interval_high": estimate.intervals.loc[codes, "hi"].to_numpy(dtype=float),
+            "league": estimate.distributions.loc["league", codes].to_numpy(dtype=float),
+        }
+    )
+    summary = estimate.summary.rename_axis("row").reset_index()
+    s = dict(estimate.settings)
+    facts = {
+        "batter_id": estimate.batter_id,
+        "batter": estimate.batter_name,
+        "batter_hand": estimate.batter_hand,
+        "pitcher_id": estimate.pitcher_id,
+        "pitcher": estimate.pitcher_name,
+        "pitcher_hand": estimate.pitcher_hand,
+        "split": estimate.split,
+        "batter_pa": float(estimate.pa["batter"]),
+        "pitcher_pa": float(estimate.pa["pitcher"]),
+        "effective_pa": float(estimate.effective_pa),
+    }
+    facts |= {k: (str(v) if isinstance(v, (list, tuple)) else v) for k, v in s.items()}
+    return {"outcomes": outcomes, "summary": summary, "facts": pd.DataFrame([facts])}
+
+
+def matchup_card(estimate: Any, *, width: int = 640) -> tuple[alt.TopLevelMixin, dict[str, pd.DataFrame]]:
+    """The card for one matchup estimate, and the tables behind it.
+
+    The card states the batter, the pitcher, the platoon split, every setting, the plate
+    appearances behind each side, each probability with its interval, wOBA and runs per
+    PA against the league, and the caution line.
+
+    Parameters
+    ----------
+    estimate : MatchupEstimate
+    width : int
+        Card width in pixels.
+
+    Returns
+    -------
+    chart : altair chart
+    tables : dict of str to DataFrame
+        As :func:`card_tables`.
+    """
+    from matchup_widgets.charts._card import matchup_card_chart
+
+    tables = card_tables(estimate)
+    out = tables["outcomes"]
+    s = dict(estimate.settings)
+    level = float(s.get("interval", 0.8))
+    long = pd.concat(
+        [
+            pd.DataFrame({"outcome": out["outcome"], "side": "matchup", "probability": out["matchup"],
+                          "low": out["interval_low"], "high": out["interval_high"]}),
+            pd.DataFrame({"outcome": out["outcome"], "side": "league", "probability": out["league"]}),
+        ],
+        ignore_index=True,
+    )
+    lg = estimate.summary.loc["league"]
+    switch = " (switch hitter)" if estimate.switch_hitter else ""
+    lines = [
+        f"Plate appearances in this split: batter {estimate.pa['batter']:,.0f}, pitcher {estimate.pa['pitcher']:,.0f} "
+        f"(the estimate is as precise as {estimate.effective_pa:,.0f} PA of one sample)",
+        _settings_line(s),
+        f"wOBA {estimate.woba:.3f} (league {float(lg['woba']):.3f}); runs per PA {estimate.runs_per_pa:+.4f} "
+        "against the league-average PA of the split",
+    ]
+    numbers = [
+        f"{label}: {p:.1%} ({level:.0%} interval {lo:.1%} to {hi:.1%}; league {g:.1%})"
+        for label, p, lo, hi, g in zip(out["label"], out["matchup"], out["interval_low"], out["interval_high"],
+                                       out["league"])
+    ]
+    chart = matchup_card_chart(
+        long,
+        title=f"{estimate.batter_name} vs {estimate.pitcher_name}",
+        subtitle=(
+            f"Platoon split {estimate.split}: batter bats {estimate.batter_hand}{switch}, "
+            f"pitcher throws {estimate.pitcher_hand}"
+        ),
+        lines=lines,
+        numbers=numbers,
+        caution=CARD_CAUTION,
+        width=width,
+    )
+    return chart, tables
+
+
+def write_matchup_card(estimate: Any, path: str | Path) -> Path:
+    """Write the card of ``estimate`` to ``path`` (.html, .png or .svg); return the path."""
+    card_format(path)  # a bad suffix fails before any rendering
+    chart, tables = matchup_card(estimate)
+    title = f"Matchup card: {estimate.batter_name} vs {estimate.pitcher_name}"
+    return write_card(chart, path, title=title, tables=tables)
