@@ -1,6 +1,7 @@
 """Chart builders: small tables in, altair charts out (no widgets, no I/O, no statistics)."""
 
 from ._calibration import brier_surface_chart, method_comparison_chart, reliability_chart, skill_chart
+from ._card import matchup_card_chart
 from ._lineup import lineup_runs_chart
 from ._matchup import contact_heatmap_chart, outcome_bars_chart, run_context_chart, tier_shares_chart
 from ._options import option_ranking_chart
@@ -14,6 +15,7 @@ __all__ = [
     "brier_surface_chart",
     "contact_heatmap_chart",
     "lineup_runs_chart",
+    "matchup_card_chart",
     "method_comparison_chart",
     "option_ranking_chart",
     "outcome_bars_chart",
