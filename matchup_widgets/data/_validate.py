@@ -179,7 +179,7 @@ def _dtype_kind(dtype) -> str:
         return "date"
     if dtype.is_timestamp():
         return "timestamp"
-    if dtype.is_null():
+    if dtype.is_null() or dtype.is_unknown():  # an all-missing column
         return "null"
     return "other"
 
@@ -372,6 +372,7 @@ def check_table(
 
     kind = kinds["game_date"]
     bad_date = ibis.literal(False)
+    date_missing = None
     if kind == "date":
         date = raw["game_date"]
     elif kind == "timestamp":
@@ -380,7 +381,8 @@ def check_table(
         s = raw["game_date"].strip()
         # ISO text, or a timestamp written as text ("2031-04-02 19:05:00")
         date = ibis.coalesce(s.try_cast("date"), s.try_cast("timestamp").date())
-        bad_date = s.notnull() & (s != "") & date.isnull()
+        date_missing = s.isnull() | (s == "")
+        bad_date = ~date_missing & date.isnull()
     elif kind == "null":
         date = ibis.null("date")
     else:
@@ -434,6 +436,8 @@ def check_table(
 
     # ---- one aggregate pass: every other count we need ---------------------------------
     is_missing = {c: out[c].isnull() for c in _KEY_COLUMNS}
+    if date_missing is not None:  # text that is no date is an error below, not a missing date
+        is_missing["game_date"] = date_missing
     code_dropped = raw_code.isin(dropped_codes) if dropped_codes else ibis.literal(False)
     drop_reasons: dict[str, ir.BooleanValue] = {}
     earlier = ibis.literal(False)
@@ -446,30 +450,50 @@ def check_table(
 
     unknown_code = ~dropped_any & ~code.isin(list(OUTCOMES))
     bad_hand = {c: ~dropped_any & (out[c].isnull() | ~out[c].isin(list(HANDS))) for c in ("batter_hand", "pitcher_hand")}
-    aggs: dict[str, ir.Value] = {"n_read": raw.count()}
+    # Per-row flags are computed once in a projection; the aggregate then only combines
+    # booleans (smaller SQL, and no expression evaluated twice per row).
+    flags: dict[str, ir.Value] = {f"miss_{i}": is_missing[c] for i, c in enumerate(_KEY_COLUMNS)}
+    flags.update({f"code_{i}": raw_code == k for i, k in enumerate(dropped_codes)})
+    flags["err_outcome"] = ~code.isin(list(OUTCOMES))
+    for c in ("batter_hand", "pitcher_hand"):
+        flags[f"err_{c}"] = out[c].isnull() | ~out[c].isin(list(HANDS))
+    flags["err_game_date"] = bad_date
+    flags["err_season"] = season_bad
+    for c, cond in int_checks.items():
+        flags[f"err_{c}"] = cond
+    for c, (not_number, out_of_range) in float_checks.items():
+        flags[f"fix_{c}_text"] = not_number
+        flags[f"fix_{c}_range"] = out_of_range
+    for c in ("batter_name", "pitcher_name"):
+        flags[f"fix_{c}"] = out[c].isnull()
+    if "exit_velo" in out:
+        flags["has_ev"] = out["exit_velo"].notnull()
+        flags["batted_no_ev"] = code.isin(list(BATTED)) & out["exit_velo"].isnull()
     if drop_duplicates and raw.get_backend().name == "duckdb":
         # Screening for exact duplicates with a 64-bit row hash: equal rows always hash
         # equal, so "no duplicates" is exact; a collision only triggers the exact DISTINCT.
-        row_hash = ibis.struct({c: raw[c] for c in columns}).hash()
-        aggs["n_distinct_hash"] = row_hash.nunique(where=~dropped_any)
-    if "exit_velo" in out:
-        aggs["n_ev"] = (~dropped_any & out["exit_velo"].notnull()).sum()
-        aggs["n_batted_no_ev"] = (~dropped_any & code.isin(list(BATTED)) & out["exit_velo"].isnull()).sum()
-    for name, cond in drop_reasons.items():
-        aggs[f"drop::{name}"] = cond.sum()
-    aggs["err::outcome"] = unknown_code.sum()
-    for c, cond in bad_hand.items():
-        aggs[f"err::{c}"] = cond.sum()
-    aggs["err::game_date"] = (~dropped_any & bad_date).sum()
-    aggs["err::season"] = (~dropped_any & season_bad).sum()
-    for c, cond in int_checks.items():
-        aggs[f"err::{c}"] = (~dropped_any & cond).sum()
-    for c, (not_number, out_of_range) in float_checks.items():
-        aggs[f"fix::{c}::text"] = (~dropped_any & not_number).sum()
-        aggs[f"fix::{c}::range"] = (~dropped_any & out_of_range).sum()
-    for c in ("batter_name", "pitcher_name"):
-        aggs[f"fix::{c}"] = (~dropped_any & out[c].isnull()).sum()
-    counts = {k: int(v or 0) for k, v in raw.aggregate(**aggs).to_pyarrow().to_pylist()[0].items()}
+        flags["row_hash"] = ibis.struct({c: raw[c] for c in columns}).hash()
+    f = raw.select(**flags)
+    seen = ibis.literal(False)
+    aggs: dict[str, ir.Value] = {"n_read": f.count()}
+    for i, c in enumerate(_KEY_COLUMNS):
+        aggs[f"drop::missing {c}"] = (f[f"miss_{i}"] & ~seen).sum()
+        seen = seen | f[f"miss_{i}"]
+    for i, k in enumerate(dropped_codes):
+        aggs[f"drop::outcome {k} mapped to None"] = (f[f"code_{i}"] & ~seen).sum()
+    kept_row = ~seen
+    for i in range(len(dropped_codes)):
+        kept_row = kept_row & ~f[f"code_{i}"]
+    for name in flags:
+        if name.startswith(("err_", "fix_")):
+            key = name.replace("err_", "err::", 1).replace("fix_", "fix::", 1)
+            aggs[key] = (kept_row & f[name]).sum()
+    if "has_ev" in flags:
+        aggs["n_ev"] = (kept_row & f["has_ev"]).sum()
+        aggs["n_batted_no_ev"] = (kept_row & f["batted_no_ev"]).sum()
+    if "row_hash" in flags:
+        aggs["n_distinct_hash"] = f["row_hash"].nunique(where=kept_row)
+    counts = {k: int(v or 0) for k, v in f.aggregate(**aggs).to_pyarrow().to_pylist()[0].items()}
 
     n_read = counts["n_read"]
 
@@ -523,7 +547,7 @@ def check_table(
     for c in float_checks:
         lo, hi = _FLOAT_RANGES[c]
         unit = "mph" if c == "exit_velo" else "degrees"
-        n_text, n_range = counts[f"fix::{c}::text"], counts[f"fix::{c}::range"]
+        n_text, n_range = counts[f"fix::{c}_text"], counts[f"fix::{c}_range"]
         if n_range:
             set_missing[f"{c} outside {lo:g}..{hi:g}"] = n_range
             warnings.append(
