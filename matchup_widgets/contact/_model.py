@@ -96,9 +96,8 @@ class _SmoothedGrid:
         n_ev, n_la = self.shape_
         counts = _cell_counts(cells, y, n_ev * n_la).reshape(n_ev, n_la, _K)
         # separable Gaussian smoothing: C'[a, b, k] = sum_ij S_ev[a, i] S_la[b, j] C[i, j, k]
-        smooth = np.einsum(
-            "ai,bj,ijk->abk", _gauss_matrix(n_ev, self.sigma), _gauss_matrix(n_la, self.sigma), counts
-        ).reshape(n_ev * n_la, _K)
+        along_ev = np.tensordot(_gauss_matrix(n_ev, self.sigma), counts, axes=(1, 0))
+        smooth = (_gauss_matrix(n_la, self.sigma) @ along_ev).reshape(n_ev * n_la, _K)
         prior = np.bincount(y, minlength=_K) / len(y)
         self.table_ = (smooth + self.alpha * prior) / (smooth.sum(1, keepdims=True) + self.alpha)
         return self
