@@ -56,7 +56,8 @@ class CalibrationLab:
     pas : PlateAppearances
         The loaded table (``matchup_widgets.data.load_pas``).
     explorer : MatchupExplorer, optional
-        Receives the chosen settings through its ``apply_settings`` method.
+        Receives the chosen settings through its ``apply_calibration`` method (or any
+        object with ``apply_settings(**settings)``).
     holdout_share : float, default 0.25
         Initial share of whole games held out for scoring.
     seed : int, default 0
@@ -216,7 +217,11 @@ class CalibrationLab:
             msg = "this panel has no explorer to send settings to; build it with CalibrationLab(pas, explorer=...)."
             raise RuntimeError(msg)
         sent = self.settings()
-        self.explorer.apply_settings(**sent)
+        if hasattr(self.explorer, "apply_calibration"):
+            # the explorer sets blend, weight and priors in one update and notes the Brier score
+            self.explorer.apply_calibration(self.result_)
+        else:
+            self.explorer.apply_settings(**sent)
         self.applied.value = (
             f"Sent to the explorer: linear blend, pitcher weight {sent['pitcher_weight']:.2f}, "
             f"batter prior {sent['batter_prior_pa']:g} PA, pitcher prior {sent['pitcher_prior_pa']:g} PA, "

@@ -119,6 +119,22 @@ def test_apply_pushes_the_fitted_settings(fitted):
     assert f"pitcher weight {r.pitcher_weight:.2f}" in lab.applied.value
 
 
+def test_apply_reaches_the_real_explorer(pas, fitted):
+    from matchup_widgets.widgets._explorer import MatchupExplorer
+
+    lab, _ = fitted
+    explorer = MatchupExplorer(pas)
+    lab.explorer = explorer
+    explorer.controls["method"].value = "odds-ratio"
+    lab.apply()
+    r = lab.result_
+    assert explorer.controls["method"].value == "linear"
+    assert explorer.controls["pitcher_weight"].value == pytest.approx(r.pitcher_weight, abs=0.005)
+    assert explorer.controls["batter_prior"].value == round(r.batter_prior_pa)
+    assert explorer.current_settings()["pitcher_prior_pa"] == round(r.pitcher_prior_pa)
+    assert explorer.status.last_error is None
+
+
 def test_csv_export(fitted, tmp_path):
     lab, _ = fitted
     lab.csv_button.click()
