@@ -142,10 +142,21 @@ def make_schedule(n_teams: int, n_seasons: int, n_games: int) -> pd.DataFrame:
     n_rounds = -(-n_games // 3)
     fixed, rest = n_teams - 1, list(range(n_teams - 1))
     rounds = []
+    hosted = np.zeros(n_teams, dtype=np.int64)
     for r in range(n_teams - 1):
         ring = rest[r:] + rest[:r]
         pairs = [(fixed, ring[0])] + [(ring[i], ring[-i]) for i in range(1, n_teams // 2)]
-        rounds.append([(a, b) if (r + i) % 2 == 0 else (b, a) for i, (a, b) in enumerate(pairs)])
+        this = []
+        for i, (a, b) in enumerate(pairs):
+            # The team that has hosted fewer series hosts this one (alternating on ties),
+            # so every team hosts half its series over a cycle and its mirror.
+            if hosted[a] != hosted[b]:
+                home = a if hosted[a] < hosted[b] else b
+            else:
+                home = a if (r + i) % 2 == 0 else b
+            hosted[home] += 1
+            this.append((home, b if home == a else a))
+        rounds.append(this)
     rows = []
     for season in range(n_seasons):
         start = dt.date(_FIRST_SEASON + season, *_START_DAY)
@@ -219,6 +230,10 @@ def _true_like(x: np.ndarray) -> np.ndarray:
 
 def _advance(outcome, outs, bases, ev, la, u):
     """Base-out transition of one plate appearance, vectorised.
+
+    The advancement chances are this generator's own, tuned (with ``f``) so the league
+    scores ~4.4-4.7 runs per team-game (common practice, from memory) and grounds into a
+    double play in ~2% of plate appearances.
 
     Returns (outs_after, bases_after, runs). Runners are conserved, so the runs-scored
     identity ``runs = runners_before + outs_before + 1 - runners_after - outs_after`` holds

@@ -11,6 +11,13 @@ from __future__ import annotations
 
 import numpy as np
 
+# Targets the league is tuned to, all the recent major-league environment (common practice,
+# from memory): strikeouts ~22% of PA, walks ~8-9%, hit by pitch ~1%, home runs ~3%,
+# batting average on balls in play ~.290-.300, ~4.4-4.7 runs per team-game. The first three
+# are set by LEAGUE_STAGE1, home runs and BABIP by the constants of ``f`` below, runs by
+# those and the base-running chances in ``_demo_sim._advance``. tests/data/test_demo.py
+# prints the realised rates and asserts them inside these ranges.
+
 # ---------------------------------------------------------------------------------------
 # Stage 1: strikeout, walk, hit by pitch or batted ball.
 # ---------------------------------------------------------------------------------------

@@ -105,6 +105,9 @@ __all__ = [
 #: Files :func:`write_demo_league` writes, in this order.
 DEMO_FILES: tuple[str, ...] = ("plate_appearances.parquet", "players.parquet", "teams.parquet")
 
+#: The repository's folder of committed demo files.
+_COMMITTED_DIR = Path(__file__).resolve().parents[2] / "demo_data"
+
 #: Share of batted balls whose tracking values are left missing.
 _TRACKING_GAP = 0.02
 
@@ -412,7 +415,7 @@ def demo_path() -> Path:
     >>> demo_path().name
     'plate_appearances.parquet'
     """
-    committed = Path(__file__).resolve().parents[2] / "demo_data" / DEMO_FILES[0]
+    committed = _COMMITTED_DIR / DEMO_FILES[0]
     if committed.is_file():
         return committed
     cache = Path(os.environ.get("XDG_CACHE_HOME") or Path.home() / ".cache") / "matchup-widgets" / "demo-2026"

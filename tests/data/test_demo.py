@@ -367,3 +367,19 @@ def test_command_reports_a_bad_size_as_json(tmp_path):
 def test_demo_path_points_at_the_committed_file():
     path = demo_path()
     assert path == DEMO_DIR / "plate_appearances.parquet" and path.is_file()
+
+
+def test_demo_path_generates_into_the_cache_when_no_committed_file(tmp_path, monkeypatch):
+    monkeypatch.setattr(demo_module, "_COMMITTED_DIR", tmp_path / "absent")
+    monkeypatch.setenv("XDG_CACHE_HOME", str(tmp_path / "cache"))
+    calls = []
+
+    def tiny(out_dir, *, seed):
+        calls.append(seed)
+        return write_demo_league(out_dir, seed=seed, n_seasons=1, n_teams=2, n_games=1)
+
+    monkeypatch.setattr(demo_module, "write_demo_league", tiny)
+    path = demo_path()
+    assert path == tmp_path / "cache" / "matchup-widgets" / "demo-2026" / "plate_appearances.parquet"
+    assert path.is_file() and calls == [2026]
+    assert demo_path() == path and calls == [2026]  # generated once, then reused
