@@ -379,10 +379,15 @@ def check_table(
         date = raw["game_date"].date()
     elif kind == "string":
         s = raw["game_date"].strip()
-        # ISO text, or a timestamp written as text ("2031-04-02 19:05:00")
-        date = ibis.coalesce(s.try_cast("date"), s.try_cast("timestamp").date())
         date_missing = s.isnull() | (s == "")
-        bad_date = ~date_missing & date.isnull()
+        if raw.get_backend().name == "duckdb":
+            # ISO text, or a timestamp written as text ("2031-04-02 19:05:00")
+            date = ibis.coalesce(s.try_cast("date"), s.try_cast("timestamp").date())
+            bad_date = ~date_missing & date.isnull()
+        else:
+            # engines without a lenient cast parse strictly; a bad date fails in the engine
+            # and load_pas reports that error as a DataError
+            date = date_missing.ifelse(ibis.null("date"), s.cast("date"))
     elif kind == "null":
         date = ibis.null("date")
     else:
