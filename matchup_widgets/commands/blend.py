@@ -93,11 +93,14 @@ def _text(d: dict) -> str:
 
 def run(args: argparse.Namespace) -> int:
     """Run ``blend``; return the exit code (0 estimated, 2 unusable input)."""
-    from matchup_widgets.data import DataError, load_pas
+    from matchup_widgets.data import DataError, load_pas, resolve_player
     from matchup_widgets.model import MatchupModel
 
     try:
         pas = load_pas(args.data)
+        # names first: a typo fails before the counts are aggregated
+        batter = resolve_player(pas, args.batter, role="batter")
+        pitcher = resolve_player(pas, args.pitcher, role="pitcher")
         model = MatchupModel(
             method=args.method,
             pitcher_weight=args.pitcher_weight,
@@ -107,7 +110,7 @@ def run(args: argparse.Namespace) -> int:
             seasons=tuple(args.seasons) if args.seasons else None,
             interval=args.interval,
         ).fit(pas)
-        estimate = model.predict(args.batter, args.pitcher, batter_hand=args.batter_hand)
+        estimate = model.predict(batter, pitcher, batter_hand=args.batter_hand)
     except (DataError, ValueError, NotImplementedError) as exc:
         return fail(f"blend: {exc}", as_json=args.json)
     payload = estimate.to_dict()
