@@ -234,7 +234,10 @@ def hit_row(
             msg = "scores_from_second and first_to_third apply to singles ('1B'), not doubles."
             raise ValueError(msg)
     else:
-        msg = f"hit_row builds rows for '1B' or '2B'; got {code!r}. Copy other rows with AdvancementTable.row."
+        msg = (
+            f"hit_row builds rows for '1B' or '2B'; got {code!r}. Copy other rows with "
+            f"AdvancementTable.row."
+        )
         raise ValueError(msg)
     return hit_arrays(
         code,

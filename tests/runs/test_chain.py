@@ -77,7 +77,8 @@ def test_2015_matrix_against_the_published_one(league_rates):
     print("\n2015 run expectancy: model - published")
     for s, label in enumerate(STATES[:24]):
         o, b = divmod(s, 8)
-        print(f"  {label:<32} model {re[o, b]:.3f}  published {PUBLISHED_2015[o, b]:.3f}  diff {diff[o, b]:+.3f}")
+        print(f"  {label:<32} model {re[o, b]:.3f}  published {PUBLISHED_2015[o, b]:.3f}  "
+              f"diff {diff[o, b]:+.3f}")
     print(f"  mean absolute difference {np.abs(diff).mean():.3f}, largest {np.abs(diff).max():.3f}")
     assert np.abs(diff).mean() <= 0.05
     assert np.abs(diff).max() <= 0.15
