@@ -66,7 +66,7 @@ def option_ranking_chart(
         alt.Tooltip("hi:Q", title="Interval high", format="+.3f"),
     ] + ([alt.Tooltip("pa:Q", title="PA")] if "pa" in rows.columns else [])
     bars = alt.Chart(rows).mark_rule(color=color, strokeWidth=3, opacity=0.55).encode(
-        x=alt.X("lo:Q", title=title, scale=alt.Scale(zero=False)), x2="hi:Q", y=y, tooltip=tips
+        x=alt.X("lo:Q", title=title, scale=alt.Scale(zero=False), axis=alt.Axis(tickCount=6)), x2="hi:Q", y=y, tooltip=tips
     )
     dots = alt.Chart(rows).mark_point(filled=True, size=80, color=color).encode(
         x=alt.X("value:Q"), y=y, tooltip=tips

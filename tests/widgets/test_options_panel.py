@@ -1,0 +1,107 @@
+"""The option-ranking panel: rankings equal the core's figures, intervals included."""
+
+from __future__ import annotations
+
+import numpy as np
+import pandas as pd
+import pytest
+
+from matchup_widgets.data import OUTCOMES, load_pas
+from matchup_widgets.model import MatchupModel, run_value_interval
+from matchup_widgets.widgets.options import OptionRanking
+
+_BASE = np.array([0.22, 0.08, 0.01, 0.15, 0.045, 0.005, 0.03, 0.22, 0.23])
+
+
+def _league(seed: int = 7, n_pa: int = 6000) -> pd.DataFrame:
+    """A small invented league (8 batters, 4 pitchers); smoke data, never a check value."""
+    rng = np.random.default_rng(seed)
+    b, p = rng.integers(0, 8, n_pa), rng.integers(0, 4, n_pa)
+    probs = _BASE * np.exp(rng.normal(0, 0.35, (8, 9)))[b] * np.exp(rng.normal(0, 0.35, (4, 9)))[p]
+    probs /= probs.sum(axis=1, keepdims=True)
+    outcome = np.minimum((rng.random(n_pa)[:, None] > probs.cumsum(axis=1)).sum(axis=1), 8)
+    game = np.arange(n_pa) // 50
+    return pd.DataFrame(
+        {
+            "game_id": [f"g{g:04d}" for g in game],
+            "game_date": pd.Timestamp("2031-04-01") + pd.to_timedelta(game // 4, unit="D"),
+            "batter_id": [f"b{i}" for i in b],
+            "pitcher_id": [f"p{i}" for i in p],
+            "batter_name": [f"Batter Number{i}" for i in b],
+            "pitcher_name": [f"Pitcher Number{i}" for i in p],
+            "batter_hand": np.where(b % 3 == 0, "L", "R"),
+            "pitcher_hand": np.where(p % 2 == 0, "R", "L"),
+            "outcome": np.asarray(OUTCOMES)[outcome],
+        }
+    )
+
+
+@pytest.fixture(scope="module")
+def pas():
+    return load_pas(_league())
+
+
+@pytest.fixture(scope="module")
+def model(pas):
+    return MatchupModel(method="odds-ratio", batter_prior_pa=100, pitcher_prior_pa=300).fit(pas)
+
+
+def test_bench_against_one_pitcher_ranked_by_core_run_values(pas, model):
+    panel = OptionRanking(pas, model=model, fixed="p2", candidates=["b0", "b3", "b5", "b6"])
+    assert panel.status.last_error is None, panel.status.widget.value
+    table = panel.ranking
+    assert sorted(table["player_id"]) == ["b0", "b3", "b5", "b6"]
+    for row in table.itertuples():
+        ref = run_value_interval(model.predict(row.player_id, "p2"))
+        assert row.value == pytest.approx(ref["value"], rel=1e-12)
+        assert (row.lo, row.hi) == pytest.approx((ref["lo"], ref["hi"]), rel=1e-12)
+        assert row.value == pytest.approx(model.predict(row.player_id, "p2").runs_per_pa, rel=1e-12)
+    assert table["value"].is_monotonic_decreasing  # batters: more runs first
+    assert table["rank"].tolist() == [1, 2, 3, 4]
+    assert table["name"].iloc[0] in panel.table.value
+    spec = panel.chart.chart.to_dict()
+    assert spec["layer"][0]["encoding"]["y"]["sort"] == table["name"].tolist()
+
+
+def test_relievers_against_one_batter_by_expected_runs_in_a_state(pas, model):
+    panel = OptionRanking(pas, model=model, mode="batter", fixed="b1")
+    panel.candidates.value = ("p0", "p1", "p3")  # as the browser would
+    panel.state.value = (2, 3)  # two outs, runners on first and second
+    assert panel.status.last_error is None, panel.status.widget.value
+    table = panel.ranking
+    assert table["value"].is_monotonic_increasing  # pitchers: fewest runs first
+    assert set(table["measure"]) == {"expected_runs"}
+    for row in table.itertuples():
+        ref = run_value_interval(model.predict("b1", row.player_id), outs=2, bases=3)
+        assert row.value == pytest.approx(ref["value"], rel=1e-12)
+    assert "expected runs" in panel.table.value
+
+
+def test_overlap_flags_options_not_clear_of_the_best(pas, model):
+    panel = OptionRanking(pas, model=model, fixed="p0", candidates=["b0", "b1", "b2", "b4", "b7"])
+    t = panel.ranking
+    best = t.iloc[0]
+    for row in t.itertuples():
+        assert row.overlaps_best == (row.hi >= best.lo and row.lo <= best.hi)
+
+
+def test_settings_from_outside_rerank(pas, model, tmp_path):
+    panel = OptionRanking(pas, model=model, fixed="p2", candidates=["b0", "b3"])
+    panel.apply_settings(method="linear", pitcher_weight=0.3, batter_prior_pa=0.0)
+    ref = run_value_interval(model.with_settings(method="linear", pitcher_weight=0.3, batter_prior_pa=0.0).predict("b3", "p2"))
+    row = panel.ranking.set_index("player_id").loc["b3"]
+    assert row["value"] == pytest.approx(ref["value"], rel=1e-12)
+    assert "pitcher weight 0.30" in panel.settings_note.value
+    panel.write_csv(tmp_path)
+    assert len(pd.read_csv(tmp_path / "options_ranking.csv")) == 2
+
+
+def test_mode_switch_and_empty_choice(pas, model):
+    panel = OptionRanking(pas, model=model)
+    panel.mode.value = "batter"
+    assert set(panel.candidates.value) <= {"p0", "p1", "p2", "p3"}
+    assert panel.ranking["player_id"].str.startswith("p").all()
+    panel.candidates.value = ()
+    assert panel.ranking.empty and "Choose" in panel.table.value
+    with pytest.raises(ValueError, match="mode must be"):
+        OptionRanking(pas, model=model, mode="catcher")
