@@ -35,6 +35,24 @@ def _with_side_labels(table: pd.DataFrame, order: tuple[str, ...] = SIDES) -> tu
     return out, sides
 
 
+def _outcome_bars_data(table: pd.DataFrame) -> tuple[pd.DataFrame, tuple]:
+    """The rows drawn by :func:`outcome_bars_chart` and the layout they imply."""
+    require_columns(table, ["outcome", "side", "probability"], where="outcome_bars_chart")
+    data, sides = _with_side_labels(table)
+    if "low" not in data.columns:
+        data["low"] = float("nan")
+    if "high" not in data.columns:
+        data["high"] = float("nan")
+    data["outcome"] = data["outcome"].astype(str)
+    data["outcome_label"] = [OUTCOME_LABELS.get(c, c) for c in data["outcome"]]
+    codes = [c for c in OUTCOMES if c in set(data["outcome"])] + [
+        c for c in ordered_unique(data["outcome"]) if c not in OUTCOMES
+    ]
+    label_order = tuple(OUTCOME_LABELS.get(c, c) for c in codes)
+    data = data[["outcome", "outcome_label", "side", "side_label", "probability", "low", "high"]]
+    return data, (label_order, tuple(sides))
+
+
 def outcome_bars_chart(
     table: pd.DataFrame,
     *,
@@ -68,23 +86,10 @@ def outcome_bars_chart(
     >>> spec["layer"][0]["encoding"]["y"]["axis"]["format"]
     '.0%'
     """
-    require_columns(table, ["outcome", "side", "probability"], where="outcome_bars_chart")
-    data, sides = _with_side_labels(table)
-    if "low" not in data.columns:
-        data["low"] = float("nan")
-    if "high" not in data.columns:
-        data["high"] = float("nan")
-    data["outcome"] = data["outcome"].astype(str)
-    data["outcome_label"] = [OUTCOME_LABELS.get(c, c) for c in data["outcome"]]
-    codes = [c for c in OUTCOMES if c in set(data["outcome"])] + [
-        c for c in ordered_unique(data["outcome"]) if c not in OUTCOMES
-    ]
-    label_order = [OUTCOME_LABELS.get(c, c) for c in codes]
+    data, (label_order, sides) = _outcome_bars_data(table)
     side_order = [side_label(s) for s in sides]
-    data = data[["outcome", "outcome_label", "side", "side_label", "probability", "low", "high"]]
-
     base = alt.Chart(data).encode(
-        x=alt.X("outcome_label:N", sort=label_order, title="Outcome", axis=alt.Axis(labelAngle=0)),
+        x=alt.X("outcome_label:N", sort=list(label_order), title="Outcome", axis=alt.Axis(labelAngle=0)),
         xOffset=alt.XOffset("side_label:N", sort=side_order),
     )
     bars = base.mark_bar().encode(
@@ -93,7 +98,7 @@ def outcome_bars_chart(
             title="Share of plate appearances",
             axis=alt.Axis(format=PERCENT_AXIS),
         ),
-        color=alt.Color("side_label:N", scale=side_scale(sides), sort=side_order, title=None),
+        color=alt.Color("side_label:N", scale=side_scale(list(sides)), sort=side_order, title=None),
         tooltip=[
             alt.Tooltip("side_label:N", title="Side"),
             alt.Tooltip("outcome_label:N", title="Outcome"),
@@ -111,6 +116,22 @@ def outcome_bars_chart(
     if title:
         chart = chart.properties(title=title)
     return style(chart)
+
+
+def _heatmap_data(table: pd.DataFrame) -> tuple[pd.DataFrame, tuple]:
+    """The rows drawn by :func:`contact_heatmap_chart` and the layout they imply."""
+    require_columns(
+        table, ["side", "exit_velo_bin", "launch_angle_bin", "share"], where="contact_heatmap_chart"
+    )
+    data, sides = _with_side_labels(table)
+    data["exit_velo_bin"] = data["exit_velo_bin"].astype(str)
+    data["launch_angle_bin"] = data["launch_angle_bin"].astype(str)
+    if "n" not in data.columns:
+        data["n"] = float("nan")
+    ev_order = tuple(ordered_unique(data["exit_velo_bin"]))
+    la_order = tuple(ordered_unique(data["launch_angle_bin"])[::-1])  # steepest band on top
+    data = data[["side", "side_label", "exit_velo_bin", "launch_angle_bin", "share", "n"]]
+    return data, (tuple(sides), ev_order, la_order)
 
 
 def contact_heatmap_chart(
@@ -144,23 +165,13 @@ def contact_heatmap_chart(
     >>> contact_heatmap_chart(t).to_dict()["spec"]["encoding"]["x"]["title"]
     'Exit velocity (mph)'
     """
-    require_columns(
-        table, ["side", "exit_velo_bin", "launch_angle_bin", "share"], where="contact_heatmap_chart"
-    )
-    data, sides = _with_side_labels(table)
-    data["exit_velo_bin"] = data["exit_velo_bin"].astype(str)
-    data["launch_angle_bin"] = data["launch_angle_bin"].astype(str)
-    if "n" not in data.columns:
-        data["n"] = float("nan")
-    ev_order = ordered_unique(data["exit_velo_bin"])
-    la_order = ordered_unique(data["launch_angle_bin"])[::-1]  # steepest band on top
-    data = data[["side", "side_label", "exit_velo_bin", "launch_angle_bin", "share", "n"]]
+    data, (sides, ev_order, la_order) = _heatmap_data(table)
     chart = (
         alt.Chart(data)
         .mark_rect(stroke="white", strokeWidth=1)
         .encode(
-            x=alt.X("exit_velo_bin:O", sort=ev_order, title="Exit velocity (mph)", axis=alt.Axis(labelAngle=0)),
-            y=alt.Y("launch_angle_bin:O", sort=la_order, title="Launch angle (degrees)"),
+            x=alt.X("exit_velo_bin:O", sort=list(ev_order), title="Exit velocity (mph)", axis=alt.Axis(labelAngle=0)),
+            y=alt.Y("launch_angle_bin:O", sort=list(la_order), title="Launch angle (degrees)"),
             color=alt.Color(
                 "share:Q",
                 title="Share of batted balls",
@@ -188,6 +199,16 @@ def contact_heatmap_chart(
     if title:
         chart = chart.properties(title=title)
     return style(chart)
+
+
+def _tier_data(table: pd.DataFrame) -> tuple[pd.DataFrame, tuple]:
+    """The rows drawn by :func:`tier_shares_chart` and the layout they imply."""
+    require_columns(table, ["side", "tier", "share"], where="tier_shares_chart")
+    data, sides = _with_side_labels(table)
+    data["tier"] = data["tier"].astype(str)
+    tiers = tuple(ordered_unique(data["tier"]))
+    data = data[["side", "side_label", "tier", "share"]]
+    return data, (tuple(sides), tiers)
 
 
 def tier_shares_chart(
@@ -219,20 +240,16 @@ def tier_shares_chart(
     >>> tier_shares_chart(t).to_dict()["encoding"]["x"]["sort"]
     ['soft', 'hard']
     """
-    require_columns(table, ["side", "tier", "share"], where="tier_shares_chart")
-    data, sides = _with_side_labels(table)
-    data["tier"] = data["tier"].astype(str)
-    tiers = ordered_unique(data["tier"])
+    data, (sides, tiers) = _tier_data(table)
     side_order = [side_label(s) for s in sides]
-    data = data[["side", "side_label", "tier", "share"]]
     chart = (
         alt.Chart(data)
         .mark_bar()
         .encode(
-            x=alt.X("tier:N", sort=tiers, title="Contact tier", axis=alt.Axis(labelAngle=0)),
+            x=alt.X("tier:N", sort=list(tiers), title="Contact tier", axis=alt.Axis(labelAngle=0)),
             xOffset=alt.XOffset("side_label:N", sort=side_order),
             y=alt.Y("share:Q", title="Share of batted balls", axis=alt.Axis(format=PERCENT_AXIS)),
-            color=alt.Color("side_label:N", scale=side_scale(sides), sort=side_order, title=None),
+            color=alt.Color("side_label:N", scale=side_scale(list(sides)), sort=side_order, title=None),
             tooltip=[
                 alt.Tooltip("side_label:N", title="Side"),
                 alt.Tooltip("tier:N", title="Tier"),
@@ -244,6 +261,14 @@ def tier_shares_chart(
     if title:
         chart = chart.properties(title=title)
     return style(chart)
+
+
+def _run_data(table: pd.DataFrame) -> tuple[pd.DataFrame, tuple]:
+    """The rows drawn by :func:`run_context_chart` and the layout they imply."""
+    require_columns(table, ["side", "expected_runs", "scoring_chance"], where="run_context_chart")
+    data, sides = _with_side_labels(table, order=("matchup", "league_hitter", "batter", "pitcher", "league"))
+    data = data[["side", "side_label", "expected_runs", "scoring_chance"]]
+    return data, (tuple(sides),)
 
 
 def run_context_chart(
@@ -278,11 +303,9 @@ def run_context_chart(
     >>> spec["hconcat"][1]["encoding"]["x"]["axis"]["format"]
     '.0%'
     """
-    require_columns(table, ["side", "expected_runs", "scoring_chance"], where="run_context_chart")
-    data, sides = _with_side_labels(table, order=("matchup", "league_hitter", "batter", "pitcher", "league"))
+    data, (sides,) = _run_data(table)
     side_order = [side_label(s) for s in sides]
-    data = data[["side", "side_label", "expected_runs", "scoring_chance"]]
-    color = alt.Color("side_label:N", scale=side_scale(sides), sort=side_order, legend=None)
+    color = alt.Color("side_label:N", scale=side_scale(list(sides)), sort=side_order, legend=None)
     y = alt.Y("side_label:N", sort=side_order, title=None)
     base = alt.Chart(data).properties(width=width, height=height)
     runs = base.mark_bar().encode(
@@ -310,3 +333,35 @@ def run_context_chart(
     )
     title = f"Run context: {state}" if state else "Run context"
     return style(alt.hconcat(runs, chance, spacing=24).properties(title=title))
+
+
+#: For each builder, the function that gives the rows it draws and a key of everything
+#: else its layout depends on. A live chart whose key has not changed can swap the rows in
+#: the finished spec instead of rebuilding the chart (see ``chart_rows``).
+_PREPARE = {
+    outcome_bars_chart: _outcome_bars_data,
+    contact_heatmap_chart: _heatmap_data,
+    tier_shares_chart: _tier_data,
+    run_context_chart: _run_data,
+}
+
+
+def chart_rows(builder, table: pd.DataFrame) -> tuple[list[dict], tuple] | None:
+    """The JSON rows ``builder(table)`` would embed and its layout key, or None if unknown.
+
+    Two tables with the same layout key give specs that differ only in their rows, so a
+    live chart can update by replacing the rows of its spec.
+
+    Examples
+    --------
+    >>> t = pd.DataFrame({"side": ["matchup"], "tier": ["soft"], "share": [0.5]})
+    >>> rows, key = chart_rows(tier_shares_chart, t)
+    >>> rows[0]["share"], key
+    (0.5, (('matchup',), ('soft',)))
+    """
+    prepare = _PREPARE.get(builder)
+    if prepare is None:
+        return None
+    data, key = prepare(table)
+    values = alt.data_transformers.get()(data)["values"]
+    return values, key
