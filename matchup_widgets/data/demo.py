@@ -14,8 +14,8 @@ series on a balanced schedule. Before each game a manager ranks his batters by t
 against the hand of the opposing starter (platoon-aware), rests a few, and bats the top nine
 in that order. A starter faces 18-30 batters (mean ~24.5), then relievers take 3-7 each.
 Games last nine innings, the bottom of the ninth is skipped when the home team leads, extra
-innings continue until a half inning ends with a different score, and a walk-off ends the
-game after the play.
+innings continue until an inning ends with the scores apart, and a walk-off ends the game
+after the play. Talents stay fixed across seasons, so every season draws from one truth.
 
 The true matchup rule
 ---------------------
@@ -39,15 +39,17 @@ Stage 2 (a batted ball). Exit velocity and launch angle are independent normals:
 
 (means 88 mph and 11 degrees, spreads 14 mph and 26 degrees), and the outcome among
 ``1B, 2B, 3B, HR, GB_OUT, AIR_OUT`` is drawn from a fixed smooth function
-``f(EV, LA)`` (:func:`batted_ball_probabilities`): home runs need about 100 mph near 28
+``f(EV, LA)`` (:func:`batted_ball_probabilities`): home runs need about 101 mph near 28
 degrees, ground balls rarely leave the park, hard-hit balls are hits far more often, pop ups
 are outs. So a plate appearance's true probabilities are
 ``P(K), P(BB), P(HBP)`` from stage 1 and ``P(BAT) * E[f(EV, LA)]`` for the batted outcomes;
-the oracle computes the expectation by Gauss-Hermite quadrature.
+the oracle computes the expectation by Gauss-Hermite quadrature (160 nodes per axis;
+``f`` is a sum of products of an exit-velocity factor and a launch-angle factor, so two
+one-dimensional integrals per term are exact to quadrature error, below 1e-4).
 
 Base running: on a single the runner from third scores and the runner from second scores
 more often on hard contact; on a double the runner from first sometimes scores; ground-ball
-outs with a runner on first and fewer than two outs become double plays about half the time;
+outs with a runner on first and fewer than two outs become double plays 45% of the time;
 deep fly balls with fewer than two outs score the runner from third most of the time. Every
 row satisfies the runs-scored identity (common practice)::
 
@@ -130,7 +132,8 @@ class DemoLeague:
     pas : pandas.DataFrame
         One row per plate appearance, sorted by game then order, with the columns of the
         plate-appearance contract plus ``half``, ``team_batting``, ``team_fielding`` and
-        ``lineup_slot``.
+        ``lineup_slot``. ``game_date`` is ``datetime64[s]`` here and a Parquet ``date`` in the
+        written file.
     players : pandas.DataFrame
         ``player_id, name, team_id, role`` (batter, starter, reliever), ``hand`` (L, R, or S
         for a switch hitter) and the true talents ``talent_k, talent_bb, talent_hbp,
