@@ -17,11 +17,19 @@ from ._distributions import CountCube, split_label
 from ._empirical_bayes import prior_from_counts
 from ._intervals import matchup_interval
 from ._shrink import shrink
-from ._summary import SUMMARY_COLUMNS, run_weights, summarize
+from ._summary import SUMMARY_COLUMNS, run_weights, summary_array
 
 #: Where the counts come from: observed outcomes, or balls in play replaced by their
 #: contact-expected outcome probabilities (the contact layer's model).
 BASES: tuple[str, ...] = ("observed", "contact")
+
+_CODES = pd.Index(list(OUTCOMES))
+_COUNT_COLS = pd.Index([*OUTCOMES, "pa"])
+_LO_HI = pd.Index(["lo", "hi"])
+_DIST_ROWS = pd.Index(["batter_raw", "batter", "pitcher_raw", "pitcher", "league", "matchup"])
+_COUNT_ROWS = pd.Index(["batter", "pitcher", "league"])
+_SUMMARY_ROWS = pd.Index(["matchup", "batter", "pitcher", "league"])
+_SUMMARY_COLS = pd.Index(list(SUMMARY_COLUMNS))
 
 _DEFAULTS: dict[str, Any] = {
     "method": "linear",
@@ -364,20 +372,23 @@ class MatchupModel:
             interval=params["interval"], n_draws=params["n_draws"], seed=params["seed"], point=point,
             **weights,
         )
-        codes = list(OUTCOMES)
         with np.errstate(invalid="ignore", divide="ignore"):
             b_raw = b_counts / b_counts.sum() if b_counts.sum() > 0 else np.full(9, np.nan)
             p_raw = p_counts / p_counts.sum() if p_counts.sum() > 0 else np.full(9, np.nan)
+        # pandas objects are built straight from arrays with prebuilt labels (slider-move speed)
         distributions = pd.DataFrame(
-            [b_raw, b_shrunk, p_raw, p_shrunk, league, point],
-            index=["batter_raw", "batter", "pitcher_raw", "pitcher", "league", "matchup"],
-            columns=codes,
+            np.vstack([b_raw, b_shrunk, p_raw, p_shrunk, league, point]), index=_DIST_ROWS, columns=_CODES
         )
-        counts = pd.DataFrame([b_counts, p_counts, lg_counts], index=["batter", "pitcher", "league"], columns=codes)
-        counts["pa"] = counts[codes].sum(axis=1)
+        count_rows = np.vstack([b_counts, p_counts, lg_counts])
+        counts = pd.DataFrame(
+            np.column_stack([count_rows, count_rows.sum(axis=1)]), index=_COUNT_ROWS, columns=_COUNT_COLS
+        )
         run_w = run_weights(league)
-        summary = summarize(np.vstack([point, b_shrunk, p_shrunk, league]), league=league, weights=run_w)
-        summary.index = ["matchup", "batter", "pitcher", "league"]
+        summary = pd.DataFrame(
+            summary_array(np.vstack([point, b_shrunk, p_shrunk, league]), run_w["woba"], run_w["linear"]),
+            index=_SUMMARY_ROWS,
+            columns=_SUMMARY_COLS,
+        )
         return MatchupEstimate(
             batter_id=batter_id,
             pitcher_id=pitcher_id,
@@ -386,13 +397,13 @@ class MatchupModel:
             batter_hand=HANDS[bh],
             pitcher_hand=HANDS[ph],
             switch_hitter=switch,
-            probabilities=pd.Series(point, index=codes, name="p"),
-            intervals=pd.DataFrame({"lo": spread["lo"], "hi": spread["hi"]}, index=codes),
+            probabilities=pd.Series(point, index=_CODES, name="p"),
+            intervals=pd.DataFrame(np.column_stack([spread["lo"], spread["hi"]]), index=_CODES, columns=_LO_HI),
             distributions=distributions,
             counts=counts,
             pa={"batter": float(b_counts.sum()), "pitcher": float(p_counts.sum())},
             effective_pa=float(spread["effective_pa"]),
-            summary=summary[list(SUMMARY_COLUMNS)],
+            summary=summary,
             suggested_prior_pa=self.suggested_priors(),
             settings=_plain_settings(params),
             weights_source=run_w["source"],

@@ -149,23 +149,29 @@ def summarize(probs: Any, *, league: Any = None, weights: dict[str, Any] | None 
     if weights is None:
         weights = run_weights(league)
     woba_w = np.asarray(weights["woba"], dtype=float)
-    flat = arr.reshape(-1, len(OUTCOMES))
-    out = pd.DataFrame(
-        {
-            "k_rate": flat[:, _K],
-            "bb_rate": flat[:, _BB],
-            "hr_rate": flat[:, _HR],
-            "on_base": flat[:, _ON_BASE_IDX].sum(axis=1),
-            "woba": flat @ woba_w,
-        }
-    )
-    linear = weights.get("linear")
-    if league is None or linear is None:
-        out["runs_per_pa"] = np.nan
-    else:
-        out["runs_per_pa"] = flat @ np.asarray(linear, dtype=float)
+    linear = weights.get("linear") if league is not None else None
+    index = None
     if isinstance(probs, pd.DataFrame):
-        out.index = probs.index
+        index = probs.index
     elif isinstance(probs, pd.Series) and probs.name is not None:
-        out.index = [probs.name]
-    return out
+        index = [probs.name]
+    return pd.DataFrame(summary_array(arr, woba_w, linear), index=index, columns=_SUMMARY_INDEX)
+
+
+_SUMMARY_INDEX = pd.Index(list(SUMMARY_COLUMNS))
+
+
+def summary_array(probs: np.ndarray, woba: np.ndarray, linear: np.ndarray | None) -> np.ndarray:
+    """The summary numbers (rows, 6) of checked probabilities (..., 9), in SUMMARY_COLUMNS order."""
+    flat = probs.reshape(-1, len(OUTCOMES))
+    runs = np.full(len(flat), np.nan) if linear is None else flat @ np.asarray(linear, dtype=float)
+    return np.column_stack(
+        [
+            flat[:, _K],
+            flat[:, _BB],
+            flat[:, _HR],
+            flat[:, _ON_BASE_IDX].sum(axis=1),
+            flat @ np.asarray(woba, dtype=float),
+            runs,
+        ]
+    )
