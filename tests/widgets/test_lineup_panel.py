@@ -1,0 +1,126 @@
+"""The lineup panel: runs per 9 from the runs layer's exact chain, and the sign of a swap."""
+
+from __future__ import annotations
+
+import numpy as np
+import pandas as pd
+import pytest
+
+from matchup_widgets.data import OUTCOMES, load_pas
+from matchup_widgets.model import MatchupModel
+from matchup_widgets.runs import lineup_runs, simulate_games
+from matchup_widgets.widgets.lineup import LineupPanel, wins_per_season
+
+_BASE = np.array([0.22, 0.08, 0.01, 0.15, 0.045, 0.005, 0.03, 0.22, 0.23])
+
+
+def _league(seed: int = 9, n_pa: int = 9000) -> pd.DataFrame:
+    """A small invented league (12 batters, 3 pitchers); smoke data, never a check value."""
+    rng = np.random.default_rng(seed)
+    b, p = rng.integers(0, 12, n_pa), rng.integers(0, 3, n_pa)
+    probs = _BASE * np.exp(rng.normal(0, 0.35, (12, 9)))[b] * np.exp(rng.normal(0, 0.2, (3, 9)))[p]
+    probs /= probs.sum(axis=1, keepdims=True)
+    outcome = np.minimum((rng.random(n_pa)[:, None] > probs.cumsum(axis=1)).sum(axis=1), 8)
+    game = np.arange(n_pa) // 60
+    return pd.DataFrame(
+        {
+            "game_id": [f"g{g:04d}" for g in game],
+            "game_date": pd.Timestamp("2031-04-01") + pd.to_timedelta(game // 3, unit="D"),
+            "batter_id": [f"b{i:02d}" for i in b],
+            "pitcher_id": [f"p{i}" for i in p],
+            "batter_name": [f"Batter Number{i}" for i in b],
+            "pitcher_name": [f"Pitcher Number{i}" for i in p],
+            "batter_hand": np.where(b % 3 == 0, "L", "R"),
+            "pitcher_hand": np.where(p == 1, "L", "R"),
+            "outcome": np.asarray(OUTCOMES)[outcome],
+        }
+    )
+
+
+@pytest.fixture(scope="module")
+def pas():
+    return load_pas(_league())
+
+
+@pytest.fixture(scope="module")
+def model(pas):
+    return MatchupModel(batter_prior_pa=50, pitcher_prior_pa=200, pitcher_weight=0.4).fit(pas)
+
+
+ORDER = [f"b{i:02d}" for i in range(9)]
+
+
+@pytest.fixture(scope="module")
+def panel(pas, model):
+    return LineupPanel(pas, model=model, pitcher="p0", order=ORDER)
+
+
+def test_runs_per_9_is_the_runs_layers_exact_figure(panel, model):
+    assert panel.status.last_error is None, panel.status.widget.value
+    probs = np.vstack([model.predict(b, "p0").probabilities.to_numpy() for b in ORDER])
+    ref = lineup_runs(probs)
+    got = panel.result["current"]["lineup"]
+    assert got.runs_per_9 == pytest.approx(ref.runs_per_9, rel=1e-12)
+    assert panel.tables()["summary"].loc[0, "runs_per_9"] == pytest.approx(ref.runs_per_9, rel=1e-12)
+    assert f"{ref.runs_per_9:.2f} runs per 9 innings" in panel.headline.value
+    # the runs-per-inning distribution drawn is the chain's (last bin: 6 or more)
+    dist = panel.tables()["runs_per_inning"]
+    assert dist["runs"].tolist() == ["0", "1", "2", "3", "4", "5", "6+"]
+    assert dist["probability"].sum() == pytest.approx(1.0, abs=1e-9)
+    assert dist["probability"].iloc[0] == pytest.approx(ref.runs_distribution[0], rel=1e-9)
+    # cross-check by simulation (runs layer's Monte Carlo, 4000 games: s.e. about 0.05 runs)
+    sims = simulate_games(probs, n_games=4000, seed=2).sum(axis=1)
+    assert abs(sims.mean() - got.runs_per_9) < 4 * sims.std() / np.sqrt(sims.size)
+
+
+def _runs_per_pa(model, batters):
+    return {b: model.predict(b, "p0").runs_per_pa for b in batters}
+
+
+def test_a_swap_moves_runs_the_way_the_model_implies(pas, model):
+    bench = ["b09", "b10", "b11"]
+    rv = _runs_per_pa(model, ORDER + bench)
+    weakest = min(ORDER, key=rv.get)
+    best_bench = max(bench, key=rv.get)
+    worst_bench = min(bench, key=rv.get)
+    strongest = max(ORDER, key=rv.get)
+    panel = LineupPanel(pas, model=model, pitcher="p0", order=ORDER)
+
+    panel.swap_in.value = best_bench  # as the browser would
+    panel.swap_slot.value = ORDER.index(weakest)
+    s = panel.tables()["summary"].iloc[0]
+    expected_sign = np.sign(rv[best_bench] - rv[weakest])
+    assert np.sign(s["change_runs_per_game"]) == expected_sign
+    assert s["change_runs_per_game"] == pytest.approx(s["swapped_runs_per_9"] - s["runs_per_9"], rel=1e-12)
+    assert s["change_wins_per_season"] == pytest.approx(s["change_runs_per_game"] * 162 / 10, rel=1e-12)
+    assert "rule of thumb" in panel.headline.value
+
+    panel.swap_in.value = worst_bench
+    panel.swap_slot.value = ORDER.index(strongest)
+    s = panel.tables()["summary"].iloc[0]
+    assert np.sign(s["change_runs_per_game"]) == np.sign(rv[worst_bench] - rv[strongest])
+    # the swapped lineup's figure is the runs layer's for that order
+    order = list(ORDER)
+    order[ORDER.index(strongest)] = worst_bench
+    probs = np.vstack([model.predict(b, "p0").probabilities.to_numpy() for b in order])
+    assert s["swapped_runs_per_9"] == pytest.approx(lineup_runs(probs).runs_per_9, rel=1e-12)
+
+
+def test_wins_rule_of_thumb():
+    # ~10 runs per win (common practice): one run per game over 162 games is 16.2 wins
+    assert wins_per_season(1.0) == pytest.approx(16.2)
+    assert wins_per_season(-0.1, games=100, runs_per_win=9.0) == pytest.approx(-10 / 9)
+
+
+def test_slot_change_settings_and_csv(pas, model, panel, tmp_path):
+    panel.slots[0].value = "b10"
+    assert panel.tables()["slots"].loc[0, "batter_id"] == "b10"
+    panel.apply_settings(method="odds-ratio")
+    assert panel.status.last_error is None, panel.status.widget.value
+    probs = np.vstack([model.with_settings(method="odds-ratio").predict(b, "p0").probabilities.to_numpy()
+                       for b in ["b10", *ORDER[1:]]])
+    assert panel.result["current"]["lineup"].runs_per_9 == pytest.approx(lineup_runs(probs).runs_per_9, rel=1e-12)
+    paths = panel.write_csv(tmp_path)
+    assert {p.name for p in paths} == {"lineup_slots.csv", "lineup_runs_per_inning.csv", "lineup_summary.csv"}
+    with pytest.raises(ValueError, match="nine batters"):
+        LineupPanel(pas, model=model, order=ORDER[:8])
