@@ -141,3 +141,20 @@ def test_card_command_reports_bad_input(data_file, tmp_path, capsys, args, messa
     assert main(argv) == 2
     err = json.loads(capsys.readouterr().out)["error"]
     assert re.search(message, err), err
+
+
+def test_card_export_panel_offers_the_current_matchup(estimate):
+    from types import SimpleNamespace
+
+    from matchup_widgets.widgets.card import MatchupCardExport
+
+    panel = MatchupCardExport(SimpleNamespace(estimate=estimate))
+    panel.buttons["svg"].click()  # as the browser would
+    assert panel.status.last_error is None, panel.status.widget.value
+    assert 'download="card_gus_marrow_vs_wade_fenner.svg"' in panel.link.value
+    assert "data:image/svg+xml;base64," in panel.link.value
+    panel.buttons["csv"].click()
+    assert 'download="card_gus_marrow_vs_wade_fenner_outcomes.csv"' in panel.link.value
+    empty = MatchupCardExport(SimpleNamespace(estimate=None))
+    empty.buttons["png"].click()
+    assert "pick a batter and a pitcher first" in empty.status.widget.value
