@@ -162,9 +162,14 @@ class CalibrationLab:
         """Load the table named by ``path``, ``$MATCHUP_WIDGETS_DATA`` or the demo league."""
         return cls(load_panel_data(path), **kwargs)
 
-    def show(self) -> W.VBox:
-        """The panel, for display as a cell's last expression."""
-        return self.widget
+    def show(self) -> None:
+        """Display the panel."""
+        from IPython.display import display
+
+        display(self.widget)
+
+    def _repr_mimebundle_(self, **kwargs: Any) -> Any:
+        return self.widget._repr_mimebundle_(**kwargs)
 
     # -- actions ------------------------------------------------------------------------
     def fit(self) -> Any:

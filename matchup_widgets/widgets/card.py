@@ -48,9 +48,14 @@ class MatchupCardExport:
         self.widget = W.VBox([W.HBox(list(self.buttons.values())), self.link, self.status.widget])
         self.widget.add_class("mw-card-export")
 
-    def show(self) -> W.VBox:
-        """The panel, for display as a cell's last expression."""
-        return self.widget
+    def show(self) -> None:
+        """Display the panel."""
+        from IPython.display import display
+
+        display(self.widget)
+
+    def _repr_mimebundle_(self, **kwargs: Any) -> Any:
+        return self.widget._repr_mimebundle_(**kwargs)
 
     def _estimate(self) -> Any:
         est = getattr(self.explorer, "estimate", None)

@@ -124,9 +124,14 @@ class OptionRanking:
 
         return cls(load_panel_data(path), **kwargs)
 
-    def show(self) -> W.VBox:
-        """The panel, for display as a cell's last expression."""
-        return self.widget
+    def show(self) -> None:
+        """Display the panel."""
+        from IPython.display import display
+
+        display(self.widget)
+
+    def _repr_mimebundle_(self, **kwargs: Any) -> Any:
+        return self.widget._repr_mimebundle_(**kwargs)
 
     # -- public ------------------------------------------------------------------------
     @property

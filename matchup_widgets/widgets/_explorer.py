@@ -1,0 +1,397 @@
+"""The matchup explorer: pick a batter and a pitcher, move the model's settings, and see
+outcome bars, contact, headline figures and run context update in place."""
+
+from __future__ import annotations
+
+import html
+import os
+from collections import OrderedDict
+from collections.abc import Callable
+from pathlib import Path
+from typing import Any
+
+import ipywidgets as W
+import pandas as pd
+
+from matchup_widgets.charts import (
+    contact_heatmap_chart,
+    outcome_bars_chart,
+    run_context_chart,
+    tier_shares_chart,
+)
+from matchup_widgets.charts._theme import INK, MUTED
+
+from ._common import Coalescer, LiveChart, StatusLine, guarded, log, section
+from ._picker import PlayerPicker
+from ._tables import headline_html, heatmap_table, outcome_table, run_table, tier_table
+
+#: Environment variable naming the plate-appearance file (set by ``matchup-widgets dashboard``).
+DATA_ENV = "MATCHUP_WIDGETS_DATA"
+
+_METHOD_WORDS = {
+    "linear": "Weighted mix of rates",
+    "odds-ratio": "Odds ratio (Log5)",
+    "two-stage": "Two-stage (ball in play first)",
+}
+_PLATOON = (
+    ("Automatic (usual side vs the pitcher's hand)", "auto"),
+    ("What if: batter hits left-handed", "L"),
+    ("What if: batter hits right-handed", "R"),
+)
+_BASIS = (("Observed outcomes", "observed"), ("Contact-expected", "contact"))
+_STYLE = {"description_width": "110px"}
+_CACHE_SIZE = 24
+
+
+class MatchupExplorer:
+    """The screen an analyst opens first: one batter against one pitcher.
+
+    Controls (``controls``): searchable batter and pitcher pickers, the platoon side
+    (automatic or a what-if), season range, blend method, pitcher weight, batter and pitcher
+    prior sizes, observed or contact-expected basis, a button that applies fitted settings,
+    and the base-out state of the run context. Outputs (``charts``, ``headline``) update in
+    place whenever a control moves; errors appear in ``status`` and never stop the panel.
+
+    Parameters
+    ----------
+    pas : PlateAppearances
+        Loaded plate appearances (:func:`matchup_widgets.data.load_pas`).
+    model : MatchupModel, optional
+        A model (fitted on ``pas`` or not); its settings are the starting values.
+    calibration : CalibrationResult or mapping, optional
+        Fitted settings (``pitcher_weight``, ``batter_prior_pa``, ``pitcher_prior_pa``) the
+        "use fitted settings" button applies; without it the button fits them on held-out
+        games first.
+    batter, pitcher : str, optional
+        Starting players (id or name); by default those with the most plate appearances.
+    contact_kind : {"grid", "boosting", "auto"}
+        Contact model behind the tier shares (``grid`` fits in seconds).
+
+    Attributes
+    ----------
+    widget : ipywidgets.Box
+        The whole panel.
+    estimate : MatchupEstimate or None
+        The estimate on screen.
+    tables : dict of DataFrame
+        The tables behind each chart, as last drawn.
+    """
+
+    def __init__(
+        self,
+        pas: Any,
+        *,
+        model: Any = None,
+        calibration: Any = None,
+        batter: str | None = None,
+        pitcher: str | None = None,
+        contact_kind: str = "grid",
+    ) -> None:
+        from matchup_widgets.model import METHODS, MatchupModel
+
+        self.pas = pas
+        model = MatchupModel() if model is None else model
+        self.model = model if hasattr(model, "batter_counts_") else model.fit(pas)
+        self.calibration = calibration
+        self.contact_kind = contact_kind
+        self.status = StatusLine()
+        self.estimate: Any = None
+        self.tables: dict[str, pd.DataFrame] = {}
+        self._cache: OrderedDict[Any, Any] = OrderedDict()
+        self._last_key: Any = None
+        self.has_contact = {"exit_velo", "launch_angle"} <= set(pas.table.columns)
+
+        start = self.model.get_params()
+        seasons = list(self.model.seasons_)
+        self.seasons_all = (min(seasons), max(seasons))
+        self.batter_picker = PlayerPicker(pas, role="batter", status=self.status)
+        self.pitcher_picker = PlayerPicker(pas, role="pitcher", status=self.status)
+        c: dict[str, W.Widget] = {
+            "batter_search": self.batter_picker.search,
+            "batter": self.batter_picker.pick,
+            "pitcher_search": self.pitcher_picker.search,
+            "pitcher": self.pitcher_picker.pick,
+            "platoon": W.Dropdown(options=_PLATOON, value="auto", description="Platoon side", style=_STYLE),
+            "seasons": W.IntRangeSlider(
+                value=tuple(start["seasons"] or self.seasons_all),
+                min=self.seasons_all[0],
+                max=self.seasons_all[1],
+                step=1,
+                description="Seasons",
+                continuous_update=False,
+                disabled=self.seasons_all[0] == self.seasons_all[1],
+                style=_STYLE,
+            ),
+            "method": W.Dropdown(
+                options=[(_METHOD_WORDS.get(m, m), m) for m in METHODS],
+                value=start["method"],
+                description="Blend",
+                style=_STYLE,
+            ),
+            "pitcher_weight": W.FloatSlider(
+                value=float(start["pitcher_weight"]), min=0.0, max=1.0, step=0.01,
+                description="Pitcher weight", readout_format=".2f", continuous_update=False, style=_STYLE,
+            ),
+            "batter_prior": W.IntSlider(
+                value=int(round(start["batter_prior_pa"])), min=0, max=1500, step=10,
+                description="Batter prior (PA)", continuous_update=False, style=_STYLE,
+            ),
+            "pitcher_prior": W.IntSlider(
+                value=int(round(start["pitcher_prior_pa"])), min=0, max=1500, step=10,
+                description="Pitcher prior (PA)", continuous_update=False, style=_STYLE,
+            ),
+            "basis": W.ToggleButtons(options=_BASIS, value=start["basis"], description="Counts", style={"description_width": "110px", "button_width": "118px"}),
+            "apply_fitted": W.Button(
+                description="Use fitted settings" if calibration is not None else "Fit and use settings",
+                tooltip="Set the blend, pitcher weight and both priors to the values fitted on held-out games (Brier score)",
+                layout=W.Layout(width="240px"),
+            ),
+            "state": W.Dropdown(options=self._state_options(), value=0, description="Base-out state", style=_STYLE),
+        }
+        for name, widget in c.items():
+            widget.add_class(f"mw-{name.replace('_', '-')}")
+            if isinstance(widget, (W.FloatSlider, W.IntSlider, W.IntRangeSlider, W.Dropdown)):
+                widget.layout.width = "100%"
+        self.controls = c
+        if batter is not None:
+            self.batter_picker.select(batter)
+        if pitcher is not None:
+            self.pitcher_picker.select(pitcher)
+
+        # outputs: long-lived widgets whose values/charts are replaced in place
+        self.headline = W.HTML(value="")
+        self.headline.add_class("mw-headline")
+        self.contact_note = W.HTML(value="")
+        self.live: dict[str, LiveChart] = {
+            "outcomes": LiveChart(
+                outcome_bars_chart, pd.DataFrame({"outcome": [], "side": [], "probability": []}),
+                css_class="mw-outcome-bars",
+            ),
+        }
+        if self.has_contact:
+            self.live["heatmap"] = LiveChart(
+                contact_heatmap_chart,
+                pd.DataFrame({"side": [], "exit_velo_bin": [], "launch_angle_bin": [], "share": []}),
+                css_class="mw-contact-heatmap",
+            )
+            self.live["tiers"] = LiveChart(
+                tier_shares_chart, pd.DataFrame({"side": [], "tier": [], "share": []}), css_class="mw-tier-shares"
+            )
+        self.live["runs"] = LiveChart(
+            run_context_chart, pd.DataFrame({"side": [], "expected_runs": [], "scoring_chance": []}),
+            css_class="mw-run-context", state=None,
+        )
+        self.charts = {name: live.widget for name, live in self.live.items()}
+
+        self._refresh_guarded = guarded(self.status, "Could not update the matchup")(self._refresh)
+        self._coalescer = Coalescer(self._refresh_guarded)
+        for name, widget in c.items():
+            if name not in ("apply_fitted", "batter_search", "pitcher_search"):
+                widget.observe(self._coalescer.request, names="value")
+        c["apply_fitted"].on_click(guarded(self.status, "Could not apply the fitted settings")(self._on_apply_fitted))
+        self.widget = self._layout()
+        self._coalescer.request()
+
+    # ---- construction helpers ------------------------------------------------------------
+    @classmethod
+    def from_path(cls, path: str | os.PathLike | None = None, **kwargs: Any) -> MatchupExplorer:
+        """Load plate appearances and build the explorer.
+
+        ``path`` defaults to the file named by ``MATCHUP_WIDGETS_DATA``, else the demo league.
+        Keyword arguments go to :class:`MatchupExplorer`.
+        """
+        from matchup_widgets.data import load_pas
+
+        if path is None:
+            path = os.environ.get(DATA_ENV) or None
+        if path is None:
+            from matchup_widgets.data.demo import demo_path
+
+            path = demo_path()
+        return cls(load_pas(Path(path)), **kwargs)
+
+    @staticmethod
+    def _state_options() -> list[tuple[str, int]]:
+        from matchup_widgets.runs import STATES
+
+        return [(label, i) for i, label in enumerate(STATES[:24])]
+
+    def _layout(self) -> W.Box:
+        c = self.controls
+        title = W.HTML(
+            f'<div style="color:{INK};font-size:20px;font-weight:700">Matchup explorer</div>'
+            f'<div style="color:{MUTED};font-size:12px">{html.escape(self._data_words())}</div>'
+        )
+        left = W.VBox(
+            [
+                section("Who is batting", self.batter_picker.widget, note="Type part of a name; ids tell namesakes apart."),
+                section("Who is pitching", self.pitcher_picker.widget),
+                section("Platoon", c["platoon"]),
+                section("Model", c["seasons"], c["method"], c["pitcher_weight"], c["batter_prior"], c["pitcher_prior"], c["basis"], c["apply_fitted"]),
+                section("Run context", c["state"], note="Every hitter for the rest of the inning is this matchup."),
+            ],
+            layout=W.Layout(width="360px", min_width="360px", padding="0 16px 0 0"),
+        )
+        right_parts = [self.status.widget, self.headline, self.charts["outcomes"]]
+        if self.has_contact:
+            right_parts += [self.charts["heatmap"], self.contact_note, self.charts["tiers"]]
+        else:
+            self.contact_note.value = f'<div style="color:{MUTED}">No exit velocity or launch angle in this data: contact charts are off.</div>'
+            right_parts.append(self.contact_note)
+        right_parts.append(self.charts["runs"])
+        right = W.VBox(right_parts, layout=W.Layout(width="800px"))
+        box = W.VBox([title, W.HBox([left, right])], layout=W.Layout(padding="8px"))
+        box.add_class("mw-explorer")
+        return box
+
+    def _data_words(self) -> str:
+        n = int(self.model.n_pa_)
+        first, last = self.seasons_all
+        seasons = f"season {first}" if first == last else f"seasons {first}-{last}"
+        return f"{n:,} plate appearances, {seasons}. Pick a batter and a pitcher; everything below follows the controls."
+
+    # ---- public --------------------------------------------------------------------------
+    def show(self) -> None:
+        """Display the panel."""
+        from IPython.display import display
+
+        display(self.widget)
+
+    def _repr_mimebundle_(self, **kwargs: Any) -> Any:
+        return self.widget._repr_mimebundle_(**kwargs)
+
+    def current_settings(self) -> dict[str, Any]:
+        """The model settings the controls describe."""
+        c = self.controls
+        seasons = tuple(int(s) for s in c["seasons"].value)
+        return {
+            "method": c["method"].value,
+            "pitcher_weight": float(c["pitcher_weight"].value),
+            "batter_prior_pa": float(c["batter_prior"].value),
+            "pitcher_prior_pa": float(c["pitcher_prior"].value),
+            "basis": c["basis"].value,
+            "seasons": None if seasons == self.seasons_all else seasons,
+        }
+
+    def current_query(self) -> tuple[Any, str, str, dict[str, Any]]:
+        """``(model, batter_id, pitcher_id, predict_kwargs)`` for the controls' values."""
+        c = self.controls
+        model = self.model.with_settings(**self.current_settings())
+        side = c["platoon"].value
+        return model, c["batter"].value, c["pitcher"].value, {"batter_hand": None if side == "auto" else side}
+
+    def apply_calibration(self, result: Any) -> None:
+        """Set the blend to linear and the weight and priors to fitted values (one update)."""
+        get = result.get if isinstance(result, dict) else lambda k: getattr(result, k)
+        c = self.controls
+        weight = float(get("pitcher_weight"))
+        b_prior, p_prior = float(get("batter_prior_pa")), float(get("pitcher_prior_pa"))
+        with self._coalescer.paused():
+            c["method"].value = "linear"  # calibration fits the linear blend
+            c["pitcher_weight"].value = round(min(max(weight, 0.0), 1.0), 3)
+            c["batter_prior"].value = int(round(min(b_prior, c["batter_prior"].max)))
+            c["pitcher_prior"].value = int(round(min(p_prior, c["pitcher_prior"].max)))
+        brier = getattr(result, "brier", None) if not isinstance(result, dict) else result.get("brier")
+        extra = f"; held-out Brier score {brier:.4f}" if brier is not None else ""
+        if self.status.last_error is None:
+            self.status.note(
+                f"Fitted settings applied: pitcher weight {weight:.2f}, batter prior {b_prior:,.0f} PA, "
+                f"pitcher prior {p_prior:,.0f} PA{extra}."
+            )
+
+    # ---- callbacks -----------------------------------------------------------------------
+    def _on_apply_fitted(self, _button: Any = None) -> None:
+        if self.calibration is None:
+            from matchup_widgets.model import calibrate
+
+            self.status.note("Fitting pitcher weight and priors on held-out games...")
+            self.calibration = calibrate(self.pas, progress=False)
+            self.controls["apply_fitted"].description = "Use fitted settings"
+        self.apply_calibration(self.calibration)
+
+    def _cached(self, key: Any, make: Callable[[], Any]) -> Any:
+        if key in self._cache:
+            self._cache.move_to_end(key)
+            return self._cache[key]
+        value = self._cache[key] = make()
+        while len(self._cache) > _CACHE_SIZE:
+            self._cache.popitem(last=False)
+        return value
+
+    def _draw(self, name: str, table: pd.DataFrame, **options: Any) -> None:
+        """Show ``table`` in chart ``name`` in place (rows swapped when the layout holds)."""
+        self.tables[name] = table
+        self.live[name].update(table, **options)
+
+    def _refresh(self) -> None:
+        from matchup_widgets.runs import situation
+
+        settings = self.current_settings()
+        model, batter, pitcher, kwargs = self.current_query()
+        state = int(self.controls["state"].value)
+        key = (tuple(sorted((k, repr(v)) for k, v in settings.items())), batter, pitcher, kwargs["batter_hand"], state)
+        if key == self._last_key:
+            return
+        if batter is None or pitcher is None:
+            self.status.warn("Pick a batter and a pitcher.")
+            return
+        est = model.predict(batter, pitcher, **kwargs)
+        self._draw("outcomes", outcome_table(est))
+        self.headline.value = headline_html(est)
+        outs, bases = divmod(state, 8)
+        sit = situation(est.probabilities, outs=outs, bases=bases, league=est.distributions.loc["league"])
+        self._draw("runs", run_table(sit), state=sit["state"])
+        self.estimate = est
+        self._last_key = key
+        self.status.clear()
+        if self.has_contact:
+            try:
+                self._refresh_contact(est, settings)
+                self.contact_note.value = ""
+            except Exception as exc:  # contact is optional: say why it is missing, keep the rest
+                log.exception("contact charts")
+                self.contact_note.value = (
+                    f'<div style="color:{MUTED}">Contact charts not updated: {html.escape(str(exc))}</div>'
+                )
+
+    def _refresh_contact(self, est: Any, settings: dict[str, Any]) -> None:
+        from matchup_widgets import contact
+
+        seasons = settings["seasons"]
+        buckets = self._cached(
+            ("buckets", seasons),
+            lambda: {r: contact.bucket_shares(self.pas, role=r, seasons=seasons) for r in ("batter", "pitcher")},
+        )
+        split = {"batter_hand": est.batter_hand, "pitcher_hand": est.pitcher_hand}
+        heat = self._cached(
+            ("heat", est.batter_id, est.pitcher_id, est.batter_hand, est.pitcher_hand, seasons),
+            lambda: heatmap_table(buckets, batter_id=est.batter_id, pitcher_id=est.pitcher_id, **split),
+        )
+        self._draw("heatmap", heat)
+
+        cmodel = contact.contact_model_for(self.pas, kind=self.contact_kind)
+        blend = {
+            "pitcher_weight": settings["pitcher_weight"],
+            "batter_prior_pa": settings["batter_prior_pa"],
+            "pitcher_prior_pa": settings["pitcher_prior_pa"],
+        }
+        sides, by_side = self._cached(
+            ("tiers", est.batter_id, est.pitcher_id, est.batter_hand, est.pitcher_hand, seasons),
+            lambda: _tier_sides(
+                contact.matchup_contact(
+                    self.pas, batter_id=est.batter_id, pitcher_id=est.pitcher_id, kind="tier",
+                    seasons=seasons, model=cmodel, **split, **blend,
+                )[0]
+            ),
+        )
+        given = self._cached(("given", self.contact_kind), lambda: contact.contact_tiers(self.pas, model=cmodel).outcome_given_tier)
+        mix, _ = contact.matchup_contact_mix(
+            by_side["batter"]["n"], by_side["pitcher"]["n"], by_side["league"]["share"],
+            outcome_given=given, **blend,
+        )
+        self._draw("tiers", tier_table(sides, mix))
+
+
+def _tier_sides(sides: pd.DataFrame) -> tuple[pd.DataFrame, dict[str, pd.DataFrame]]:
+    """The contact layer's side table and its batter, pitcher and league rows by tier."""
+    return sides, {s: sides[sides["side"] == s].set_index("category") for s in ("batter", "pitcher", "league")}
