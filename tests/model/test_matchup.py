@@ -194,3 +194,19 @@ def test_suggested_priors_are_reported(fitted):
     # The invented league gives every player the same talent: no real spread, so the
     # suggestions are large (or infinite) for the common outcomes.
     assert np.all(got.loc[["K", "GB_OUT"]].to_numpy() > 300)
+
+
+def test_a_split_never_seen_gives_wide_intervals_not_false_precision(fitted):
+    # bat00 always bats L; asking for R is a what-if with no PAs of his own in that split.
+    raw = fitted.with_settings(batter_prior_pa=0, pitcher_prior_pa=0, pitcher_weight=0.0)
+    unseen = raw.predict("bat00", "pit01", batter_hand="R")
+    seen = raw.predict("bat00", "pit01")
+    assert unseen.pa["batter"] == 0 and seen.pa["batter"] > 100
+    width_unseen = (unseen.intervals["hi"] - unseen.intervals["lo"]).to_numpy()
+    width_seen = (seen.intervals["hi"] - seen.intervals["lo"]).to_numpy()
+    common = [OUTCOMES.index(c) for c in ("K", "1B", "GB_OUT", "AIR_OUT")]
+    assert np.all(width_unseen[common] > 0.15)
+    assert np.all(width_unseen[common] > 3 * width_seen[common])
+    assert unseen.effective_pa < 10
+    # with no PAs and no prior the point estimate is the league of the split
+    assert_allclose(unseen.probabilities.to_numpy(), unseen.distributions.loc["league"].to_numpy(), rtol=1e-12)
