@@ -58,7 +58,7 @@ def register(subparsers: argparse._SubParsersAction) -> None:
     p.add_argument("--seasons", type=int, nargs=2, metavar=("FIRST", "LAST"), default=None,
                    help="inclusive season range (default all seasons)")
     p.add_argument("--batter-hand", choices=("L", "R"), default=None,
-                   help="side the batter hits from (default: his usual side; switch hitters bat opposite the pitcher)")
+                   help="side the batter hits from (default: the batter's usual side; switch hitters bat opposite the pitcher)")
     p.add_argument("--interval", type=float, default=0.8, metavar="P",
                    help="central probability of the intervals (default 0.8)")
     p.add_argument("--json", action="store_true", help="print one JSON object on stdout")
