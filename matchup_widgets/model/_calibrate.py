@@ -256,12 +256,12 @@ def _prepare(pas, score, *, holdout_share: float, seed: int, season_forward: boo
             "Use more games, another holdout share, or a separate score table."
         )
         raise DataError(msg)
-    league4 = _league_table(league_counts(fit))
+    counts = {role: _side_counts(fit, role, basis) for role in ("batter", "pitcher")}
+    # every fitting PA has one batter: the batters' observed counts summed per split are the
+    # league's (one engine query fewer); the contact basis asks the engine for observed ones
+    league4 = _league_table(counts["batter"] if basis == "observed" else league_counts(fit))
     cells, cell_of_pa = collapse_cells(held, return_inverse=True)
-    sides = {
-        role: _side_rows(cells, _side_counts(fit, role, basis), f"{role}_id", league4)
-        for role in ("batter", "pitcher")
-    }
+    sides = {role: _side_rows(cells, counts[role], f"{role}_id", league4) for role in counts}
     cell_split = _split_index(cells["batter_hand"].astype(str), cells["pitcher_hand"].astype(str))
     return _Prepared(
         cells=cells,
