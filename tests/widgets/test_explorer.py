@@ -1,0 +1,217 @@
+"""The matchup explorer without a browser: set control values as the browser would, then
+check that the outputs changed and carry the model's own numbers.
+
+The demo league is used for these smoke checks (it is invented data: no check value comes
+from it; every expected number is recomputed with the core's public functions)."""
+
+from __future__ import annotations
+
+import numpy as np
+import pytest
+
+from matchup_widgets.data import OUTCOMES, DataError
+from matchup_widgets.widgets import MatchupExplorer
+from matchup_widgets.widgets._tables import SMALL_SAMPLE_PA
+
+
+@pytest.fixture(scope="module")
+def explorer():
+    from matchup_widgets.data.demo import demo_path
+
+    return MatchupExplorer.from_path(demo_path())
+
+
+def _rows(ex, name):
+    return ex.live[name].rows()
+
+
+def _predict(ex):
+    model, batter, pitcher, kwargs = ex.current_query()
+    return model.predict(batter, pitcher, **kwargs)
+
+
+def _matchup_rows(ex):
+    rows = [r for r in _rows(ex, "outcomes") if r["side"] == "matchup"]
+    return {r["outcome"]: r for r in rows}
+
+
+def _assert_matches_model(ex):
+    est = _predict(ex)
+    rows = _matchup_rows(ex)
+    got = np.array([rows[c]["probability"] for c in OUTCOMES])
+    np.testing.assert_allclose(got, est.probabilities.loc[list(OUTCOMES)].to_numpy(), rtol=1e-12)
+    np.testing.assert_allclose([rows[c]["low"] for c in OUTCOMES], est.intervals["lo"].to_numpy(), rtol=1e-12)
+    np.testing.assert_allclose([rows[c]["high"] for c in OUTCOMES], est.intervals["hi"].to_numpy(), rtol=1e-12)
+    batter = {r["outcome"]: r["probability"] for r in _rows(ex, "outcomes") if r["side"] == "batter"}
+    np.testing.assert_allclose([batter[c] for c in OUTCOMES], est.distributions.loc["batter", list(OUTCOMES)].to_numpy(), rtol=1e-12)
+    return est
+
+
+def test_builds_with_every_output(explorer):
+    ex = explorer
+    assert ex.status.last_error is None, ex.status.widget.value
+    assert set(ex.charts) == {"outcomes", "heatmap", "tiers", "runs"}
+    est = _assert_matches_model(ex)
+    assert est.batter_name in ex.headline.value and est.pitcher_name in ex.headline.value
+    assert f"{100 * est.k_rate:.1f}%" in ex.headline.value  # K% shown as a percentage
+    assert {r["side"] for r in _rows(ex, "outcomes")} == {"batter", "pitcher", "league", "matchup"}
+    assert {r["side"] for r in _rows(ex, "heatmap")} == {"batter", "pitcher"}
+    assert {r["side"] for r in _rows(ex, "tiers")} == {"batter", "pitcher", "league", "matchup"}
+
+
+def test_weight_slider_updates_outputs_in_place(explorer):
+    ex = explorer
+    widgets_before = {k: id(v) for k, v in ex.charts.items()}
+    ex.controls["pitcher_weight"].value = 0.2
+    before = _matchup_rows(ex)
+    headline = ex.headline.value
+    runs_before = _rows(ex, "runs")
+    tiers_before = _rows(ex, "tiers")
+    builds = ex.live["outcomes"].n_builds
+    ex.controls["pitcher_weight"].value = 0.8
+    assert _matchup_rows(ex) != before
+    assert ex.headline.value != headline
+    assert _rows(ex, "runs") != runs_before
+    assert _rows(ex, "tiers") != tiers_before  # the contact mix follows the weight
+    assert ex.estimate.settings["pitcher_weight"] == 0.8
+    _assert_matches_model(ex)
+    # same widgets, rows swapped in the spec: no new chart, no new output area
+    assert {k: id(v) for k, v in ex.charts.items()} == widgets_before
+    assert ex.live["outcomes"].n_builds == builds
+
+
+@pytest.mark.parametrize(
+    ("control", "value", "setting", "expected"),
+    [
+        ("batter_prior", 600, "batter_prior_pa", 600.0),
+        ("pitcher_prior", 30, "pitcher_prior_pa", 30.0),
+        ("method", "odds-ratio", "method", "odds-ratio"),
+        ("method", "two-stage", "method", "two-stage"),
+        ("seasons", (2025, 2026), "seasons", [2025, 2026]),
+    ],
+)
+def test_model_controls_reach_the_model(explorer, control, value, setting, expected):
+    ex = explorer
+    ex.controls[control].value = value
+    assert ex.status.last_error is None, ex.status.widget.value
+    assert ex.estimate.settings[setting] == expected
+    _assert_matches_model(ex)
+
+
+def test_platoon_what_if(explorer):
+    ex = explorer
+    ex.controls["platoon"].value = "L"
+    assert ex.estimate.batter_hand == "L"
+    assert "left-handed" in ex.headline.value
+    _assert_matches_model(ex)
+    ex.controls["platoon"].value = "R"
+    assert ex.estimate.batter_hand == "R"
+    ex.controls["platoon"].value = "auto"
+    assert ex.current_query()[3] == {"batter_hand": None}
+
+
+def test_search_lists_namesakes_with_ids(explorer):
+    ex = explorer
+    players = ex.pas.players
+    batters = players[players["role"] == "batter"]
+    dupes = batters[batters["name"].duplicated(keep=False)]
+    assert len(dupes) >= 2, "the demo league is documented to have a namesake pair"
+    name = dupes["name"].iloc[0]
+    ex.controls["batter_search"].value = name
+    options = ex.controls["batter"].options
+    ids_listed = {v for label, v in options if label.startswith(name)}
+    assert set(dupes.loc[dupes["name"] == name, "player_id"]) <= ids_listed
+    assert all(f"({pid}," in label for label, pid in options)
+    # choose the second namesake, as a click in the dropdown would
+    other = sorted(ids_listed)[1]
+    ex.controls["batter"].value = other
+    assert ex.estimate.batter_id == other
+    _assert_matches_model(ex)
+
+
+def test_search_with_no_match_keeps_the_choice(explorer):
+    ex = explorer
+    chosen = ex.controls["pitcher"].value
+    ex.controls["pitcher_search"].value = "zzzz-no-such-name"
+    assert ex.controls["pitcher"].value == chosen
+    assert "No pitcher matches" in ex.status.widget.value
+    ex.controls["pitcher_search"].value = ""
+
+
+def test_run_context_follows_the_state(explorer):
+    from matchup_widgets.runs import situation, state_label
+
+    ex = explorer
+    ex.controls["state"].value = 2 * 8 + 7  # bases loaded, two outs
+    est = ex.estimate
+    want = situation(est.probabilities, outs=2, bases=7, league=est.distributions.loc["league"])
+    rows = {r["side"]: r for r in _rows(ex, "runs")}
+    assert rows["matchup"]["expected_runs"] == pytest.approx(want["expected_runs"], rel=1e-12)
+    assert rows["league_hitter"]["scoring_chance"] == pytest.approx(want["league_p_score"], rel=1e-12)
+    assert ex.charts["runs"].spec["title"] == f"Run context: {state_label(2, 7)}"
+
+
+def test_one_refresh_per_change_and_none_reentrant(explorer, monkeypatch):
+    ex = explorer
+    calls = []
+    inner = ex._coalescer._refresh
+    monkeypatch.setattr(ex._coalescer, "_refresh", lambda: (calls.append(1), inner())[1])
+    ex.controls["pitcher_weight"].value = 0.33
+    assert len(calls) == 1
+    # typing in the search box replaces the options, which moves the value once
+    calls.clear()
+    ex.controls["batter_search"].value = ex.controls["batter"].options[-1][0].split(" (")[0]
+    assert len(calls) <= 1
+    # an unchanged query does not recompute
+    calls.clear()
+    ex.controls["pitcher_weight"].value = 0.33
+    assert calls == []
+
+
+def test_error_in_a_callback_is_shown_and_controls_stay_usable(explorer, monkeypatch):
+    ex = explorer
+    model_type = type(ex.model)
+    real = model_type.predict
+
+    def broken(self, *args, **kwargs):
+        msg = "batter 'b9999' has no plate appearances in seasons (2031, 2031). Widen the season range."
+        raise DataError(msg)
+
+    monkeypatch.setattr(model_type, "predict", broken)
+    ex.controls["pitcher_weight"].value = 0.61
+    assert isinstance(ex.status.last_error, DataError)
+    assert "Widen the season range" in ex.status.widget.value
+    assert "Could not update the matchup" in ex.status.widget.value
+    monkeypatch.setattr(model_type, "predict", real)
+    ex.controls["pitcher_weight"].value = 0.62  # the panel recovers on the next change
+    assert ex.status.last_error is None
+    assert ex.status.widget.value == ""
+    assert ex.estimate.settings["pitcher_weight"] == 0.62
+
+
+def test_apply_fitted_settings_in_one_update(explorer, monkeypatch):
+    ex = explorer
+    calls = []
+    inner = ex._coalescer._refresh
+    monkeypatch.setattr(ex._coalescer, "_refresh", lambda: (calls.append(1), inner())[1])
+    ex.controls["method"].value = "odds-ratio"
+    calls.clear()
+    ex.calibration = {"pitcher_weight": 0.437, "batter_prior_pa": 400.0, "pitcher_prior_pa": 100.0, "brier": 0.0801}
+    ex.controls["apply_fitted"].click()
+    assert len(calls) == 1
+    assert ex.controls["method"].value == "linear"
+    assert ex.controls["pitcher_weight"].value == pytest.approx(0.437)
+    assert (ex.controls["batter_prior"].value, ex.controls["pitcher_prior"].value) == (400, 100)
+    assert "Fitted settings applied" in ex.status.widget.value
+    _assert_matches_model(ex)
+
+
+def test_small_sample_note(explorer):
+    ex = explorer
+    players = ex.pas.players
+    fewest = players[players["role"] == "batter"].sort_values("pa").iloc[0]
+    ex.controls["platoon"].value = "auto"
+    ex.batter_picker.select(fewest["player_id"])
+    assert ex.estimate.batter_id == fewest["player_id"]
+    small = ex.estimate.pa["batter"] < SMALL_SAMPLE_PA
+    assert ("Small sample" in ex.headline.value) == small
