@@ -102,3 +102,14 @@ def test_seeded_fit_is_deterministic(synth_pas):
     p1 = ContactModel(kind="boosting", random_state=4).fit(small).predict_proba([100.0], [28.0])
     p2 = ContactModel(kind="boosting", random_state=4).fit(small).predict_proba([100.0], [28.0])
     assert_allclose(p1, p2, rtol=0, atol=0)
+
+
+def test_boosting_lookup_equals_direct_prediction(synth_pas):
+    # reference: scikit-learn's own predict_proba on the same balls (the lookup must be exact)
+    model = ContactModel(kind="boosting").fit(synth_pas)
+    est = model._estimator
+    assert est.edges_ is not None
+    rng = np.random.default_rng(9)
+    ev = np.concatenate([rng.uniform(20, 130, 3000), est.edges_[0][:50]])  # include values on the edges
+    la = np.concatenate([rng.uniform(-90, 90, 3000), est.edges_[1][:50]])
+    assert_allclose(est.predict_proba(ev, la), est._direct(ev, la), rtol=1e-12, atol=1e-15)
