@@ -26,10 +26,16 @@ Repaired, with a count and a warning:
 Allowed and counted:
     a batted-ball outcome with no exit velocity.
 Normalised silently:
-    ids and names are text with surrounding blanks removed (an empty id is missing);
-    hands and outcome codes are upper-cased; ``season`` is the year of ``game_date``
-    where absent.
+    ids and names become text (numbers such as 1001 or 1001.0 become "1001"; an empty
+    id is missing); hands and outcome codes are upper-cased with blanks removed;
+    ``season`` is the year of ``game_date`` where absent.
 With ``strict=True`` every drop and every repair is an error instead.
+
+Duplicates are judged on every input column, mapped or not: a per-plate-appearance key
+(an event number) keeps two identical-looking plate appearances apart. On DuckDB a
+64-bit row hash screens for duplicates first, so clean data skips the DISTINCT.
+Engines without a lenient cast (polars) parse text dates strictly; a bad date then
+fails in the engine and :func:`load_pas` reports it as a :class:`DataError`.
 """
 
 from __future__ import annotations
