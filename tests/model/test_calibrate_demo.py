@@ -53,3 +53,18 @@ def test_demo_fit_reports_interval_methods_and_reliability(demo):
     rel = result.reliability
     assert set(rel["outcome"]) >= {"K", "BB", "HR", "GB_OUT", "AIR_OUT"}
     assert np.allclose(rel.groupby("outcome")["n_pa"].sum(), result.n_holdout_pa)
+
+
+def test_contact_basis_fits_on_contact_expected_counts():
+    # Wiring check on a small invented league: the contact basis replaces balls in play by
+    # their modelled outcome probabilities, so its scores differ from the observed basis.
+    from matchup_widgets.data.demo import make_demo_league
+
+    league = make_demo_league(seed=3, n_seasons=1, n_teams=4, n_games=30)
+    pas = load_pas(league.pas)
+    kw = {"priors": (0, 100), "n_boot": 10, "progress": False}
+    observed, contact = calibrate(pas, **kw), calibrate(pas, basis="contact", **kw)
+    assert contact.basis == "contact" and observed.basis == "observed"
+    assert (contact.n_fit_pa, contact.n_holdout_pa) == (observed.n_fit_pa, observed.n_holdout_pa)
+    assert np.isfinite(contact.brier) and contact.brier != observed.brier
+    assert contact.brier_baselines["league"] == pytest.approx(observed.brier_baselines["league"], rel=1e-12)
