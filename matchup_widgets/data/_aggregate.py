@@ -27,9 +27,21 @@ def _check_role(role: str) -> str:
     return _ROLES[role]
 
 
+def _require(t: ir.Table, columns: list[str]) -> None:
+    missing = [c for c in columns if c not in t.columns]
+    if missing:
+        hint = " (or game_date, to derive it)" if "season" in missing else ""
+        msg = (
+            f"Counting needs column(s) {', '.join(repr(c) for c in missing)}{hint}, which the table lacks; "
+            "load the data with load_pas so every contract column is present."
+        )
+        raise DataError(msg)
+
+
 def _filter_seasons(t: ir.Table, seasons: Any) -> ir.Table:
     if seasons is None:
         return t
+    _require(t, ["season"])
     try:
         first, last = (int(s) for s in seasons)
     except (TypeError, ValueError):
@@ -97,7 +109,9 @@ def outcome_counts(
     1        b2           R  1   0   1
     """
     id_col = _check_role(role)
-    t = _filter_seasons(as_table(pas), seasons)
+    t = as_table(pas)
+    _require(t, [id_col, "batter_hand", "pitcher_hand", "outcome"] + (["season"] if by_season else []))
+    t = _filter_seasons(t, seasons)
     keys = ["player_id", "batter_hand", "pitcher_hand"] + (["season"] if by_season else [])
     grouped = t.group_by(
         player_id=t[id_col], batter_hand=t.batter_hand, pitcher_hand=t.pitcher_hand,
@@ -136,7 +150,9 @@ def league_counts(pas: Any, *, seasons: tuple[int, int] | None = None) -> pd.Dat
     2           R            L  0   0   0
     3           R            R  1   0   1
     """
-    t = _filter_seasons(as_table(pas), seasons)
+    t = as_table(pas)
+    _require(t, ["batter_hand", "pitcher_hand", "outcome"])
+    t = _filter_seasons(t, seasons)
     keys = ["batter_hand", "pitcher_hand"]
     got = t.group_by(keys).aggregate(**_count_columns(t)).to_pandas()
     full = pd.DataFrame(list(SPLITS), columns=keys)

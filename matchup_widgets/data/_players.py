@@ -59,10 +59,14 @@ def player_table(pas: Any) -> pd.DataFrame:
     else:
         t = as_table(pas)
     parts = []
+    # the latest game's name; without dates, the alphabetically last one (deterministic)
+    when = t.game_date if "game_date" in t.columns else None
     for role, (id_col, name_col, hand_col) in _ROLE_COLUMNS.items():
+        name = t[name_col].argmax(when) if when is not None else t[name_col].max()
+        last = when.max() if when is not None else t[name_col].max()
         by_hand = (
             t.group_by(player_id=t[id_col], hand=t[hand_col])
-            .aggregate(pa=t.count(), name=t[name_col].argmax(t.game_date), last=t.game_date.max())
+            .aggregate(pa=t.count(), name=name, last=last)
             .to_pandas()
         )
         if by_hand.empty:

@@ -105,6 +105,11 @@ def test_bad_parameters():
         outcome_counts(_random_pas(20), role="batter", seasons=(2032, 2030))
     with pytest.raises(ValueError, match=r"inclusive \(first, last\) pair"):
         league_counts(_random_pas(20), seasons=2031)
+    bare = _random_pas(20).drop(columns=["game_date"])
+    with pytest.raises(DataError, match=r"needs column\(s\) 'season' \(or game_date, to derive it\)"):
+        outcome_counts(bare, role="batter", by_season=True)
+    with pytest.raises(DataError, match=r"needs column\(s\) 'outcome'"):
+        league_counts(bare.drop(columns=["outcome"]))
 
 
 def test_league_counts_have_all_four_splits_and_sum_to_the_rows(pas):

@@ -43,6 +43,13 @@ def test_player_table(pas):
     pd.testing.assert_frame_equal(player_table(pas.table), players)
 
 
+def test_player_table_without_dates():
+    df = _pas().frame.drop(columns=["game_date", "season"])
+    players = player_table(df)
+    assert players.set_index("player_id").loc["b5", "name"] == "Dee Ashworth-Lyle"  # alphabetically last
+    assert resolve_player(df, "Fenn", role="batter") == "b4"
+
+
 def test_resolve_by_id_exact_name_and_unique_part(pas):
     assert resolve_player(pas, "b2", role="batter") == "b2"
     assert resolve_player(pas, "ada quill", role="batter") == "b1"
