@@ -22,12 +22,12 @@ from ._calibrate_surface import (
     DEFAULT_PRIOR_GRID,
     DEFAULT_WEIGHTS,
     _best_pairs,
+    _bootstrap_shrunk,
     _check_grid,
     _linear_coefficients,
     _shrunk_grid,
     _surface_frame,
     _two_stage_coefficients,
-    _bootstrap_shrunk,
     _two_stage_grid,
 )
 from ._scores import brier_score, log_loss, reliability_table
@@ -39,7 +39,6 @@ __all__ = ["CalibrationResult", "calibrate"]
 _BASES: tuple[str, ...] = ("observed", "contact")
 
 _SPLIT_KEYS = ["batter_hand", "pitcher_hand"]
-_BASELINES = ("league", "batter_only", "pitcher_only", "even_blend")
 
 
 @dataclass(frozen=True)
