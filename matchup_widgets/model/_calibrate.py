@@ -102,6 +102,36 @@ class CalibrationResult:
     split: str
     basis: str
 
+    def model_settings(self, method: str = "linear") -> dict[str, Any]:
+        """Settings for ``MatchupModel(**settings)`` (or ``with_settings``) that reproduce a fit.
+
+        Parameters
+        ----------
+        method : {"linear", "odds-ratio", "two-stage"}, default "linear"
+            Which fitted method's settings to return.
+
+        Returns
+        -------
+        dict
+            ``method``, its weights, ``batter_prior_pa``, ``pitcher_prior_pa`` and ``basis``.
+        """
+        if method == "linear":
+            out = {"method": "linear", "pitcher_weight": self.pitcher_weight,
+                   "batter_prior_pa": self.batter_prior_pa, "pitcher_prior_pa": self.pitcher_prior_pa}
+        elif method == "two-stage":
+            ts = self.two_stage
+            out = {"method": "two-stage", "first_weight": ts["first_weight"], "in_play_weight": ts["in_play_weight"],
+                   "batter_prior_pa": ts["batter_prior_pa"], "pitcher_prior_pa": ts["pitcher_prior_pa"]}
+        elif method == "odds-ratio":
+            row = self.methods.set_index("method").loc["odds-ratio"]
+            out = {"method": "odds-ratio", "batter_exponent": 1.0, "pitcher_exponent": 1.0,
+                   "batter_prior_pa": float(row["batter_prior_pa"]), "pitcher_prior_pa": float(row["pitcher_prior_pa"])}
+        else:
+            msg = f"unknown method {method!r}; choose one of 'linear', 'odds-ratio', 'two-stage'."
+            raise ValueError(msg)
+        out["basis"] = self.basis
+        return out
+
     def to_dict(self) -> dict[str, Any]:
         """Plain JSON-ready dict: the ``fit`` command's keys first, then the extras."""
         out = {
