@@ -293,6 +293,11 @@ def load_pas(
         rows, up to five example values and what to do. See
         :mod:`matchup_widgets.data._validate` for what is dropped or repaired instead.
 
+    Notes
+    -----
+    Parquet and DuckDB files are queried in place, so keep the file while the result is
+    in use; CSV files are parsed once into memory. Nothing is ever written to the source.
+
     Examples
     --------
     >>> df = pd.DataFrame({

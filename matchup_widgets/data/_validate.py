@@ -140,10 +140,7 @@ class ValidationReport:
         if self.source:
             lines.append(f"Source: {self.source}.")
         if self.has_contact:
-            lines.append(
-                "Contact data: yes (exit velocity and launch angle); "
-                f"{self.n_batted_without_exit_velo:,} batted balls have no exit velocity."
-            )
+            lines.append("Contact data: yes (exit velocity and launch angle).")
         else:
             lines.append("Contact data: no (needs exit_velo and launch_angle).")
         lines.append(
