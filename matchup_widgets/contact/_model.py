@@ -133,13 +133,17 @@ class _Boosting:
     def fit(self, ev: np.ndarray, la: np.ndarray, y: np.ndarray) -> _Boosting:
         from sklearn.ensemble import HistGradientBoostingClassifier
 
+        # early stopping holds out a stratified share, which needs a few balls of every
+        # outcome present; with rarer outcomes run a short fixed number of rounds instead
+        present = np.bincount(y)
+        stop_early = present[present > 0].min() >= 10
         self.model_ = HistGradientBoostingClassifier(
             learning_rate=0.1,
-            max_iter=self.max_iter,
+            max_iter=self.max_iter if stop_early else min(self.max_iter, 40),
             max_leaf_nodes=15,
             min_samples_leaf=40,
             l2_regularization=1.0,
-            early_stopping=True,
+            early_stopping=bool(stop_early),
             validation_fraction=0.15,
             n_iter_no_change=8,
             random_state=self.random_state,

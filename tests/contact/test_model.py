@@ -113,3 +113,13 @@ def test_boosting_lookup_equals_direct_prediction(synth_pas):
     ev = np.concatenate([rng.uniform(20, 130, 3000), est.edges_[0][:50]])  # include values on the edges
     la = np.concatenate([rng.uniform(-90, 90, 3000), est.edges_[1][:50]])
     assert_allclose(est.predict_proba(ev, la), est._direct(ev, la), rtol=1e-12, atol=1e-15)
+
+
+def test_small_table_with_a_lone_outcome_still_fits(make_synth):
+    # a triple seen once cannot be split for early stopping; the fit must still work
+    df = make_synth(600, seed=1)
+    batted = df[df.outcome.isin(BATTED)]
+    assert (batted.outcome == "3B").sum() <= 2
+    model = ContactModel(random_state=1).fit(df)
+    assert set(model.scores_) == {"boosting", "grid", "bucket_baseline"}
+    assert_allclose(model.predict_proba([95.0], [20.0]).sum(), 1.0, rtol=1e-9)
