@@ -78,6 +78,9 @@ def run(args: argparse.Namespace) -> int:
             strict=args.strict,
             outcome_map=_read_outcome_map(args.outcome_map),
         )
+    except DataError as exc:
+        return fail(f"{args.path}: not usable. {exc}", as_json=args.json)
+    try:
         players: dict[str, dict] = {}
         split = _parse_split(args.split) if args.split else None
         for role, query in (("batter", args.batter), ("pitcher", args.pitcher)):
@@ -90,8 +93,8 @@ def run(args: argparse.Namespace) -> int:
                 row = require_split(counts, player_id, split[0], split[1], role=role)
                 entry["split_pa"] = int(row["pa"])
             players[role] = entry
-    except DataError as exc:
-        return fail(f"{args.path}: not usable. {exc}", as_json=args.json)
+    except DataError as exc:  # the data loads, but not for the players or split asked about
+        return fail(f"{args.path}: {exc}", as_json=args.json)
 
     report = pas.report
     payload = {"usable": True, "path": str(args.path), **report.to_dict(), "seasons": pas.seasons}

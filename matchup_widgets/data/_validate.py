@@ -274,7 +274,9 @@ def check_columns(columns: list[str]) -> None:
         return
     found = ", ".join(repr(c) for c in columns[:15]) + (", ..." if len(columns) > 15 else "")
     hints = []
-    lowered = {str(c).lower(): c for c in columns}
+    # suggest only columns that are not already contract columns
+    contract = set(REQUIRED_COLUMNS) | set(OPTIONAL_COLUMNS)
+    lowered = {str(c).lower(): c for c in columns if c not in contract}
     for name in missing:
         close = difflib.get_close_matches(name, list(lowered), n=1, cutoff=0.5)
         if close:

@@ -63,6 +63,14 @@ def test_missing_required_column_names_it_and_suggests_a_mapping():
         load_pas(df)
 
 
+def test_missing_column_hint_never_points_at_another_contract_column():
+    df = _frame().drop(columns=["pitcher_hand"])
+    with pytest.raises(DataError) as info:
+        load_pas(df)
+    assert "'pitcher_id': 'pitcher_hand'" not in str(info.value)
+    assert "Rename yours with a mapping" in str(info.value)
+
+
 def test_unknown_outcome_codes_are_an_error_listing_codes_and_counts():
     df = _frame()
     df.loc[[0, 1, 2], "outcome"] = ["SAC", "SAC", "E"]
