@@ -64,6 +64,7 @@ class LineupPanel:
         self.model = model if hasattr(model, "batter_counts_") else model.fit(pas)
         self.status = StatusLine()
         self.result: dict[str, Any] = {}
+        self._estimates: dict[tuple[str, str], Any] = {}  # (batter, pitcher) -> estimate, current settings
 
         batters = pas.players[pas.players["role"] == "batter"].sort_values("pa", ascending=False, kind="stable")
         options = player_options(batters, role="batter")
@@ -160,6 +161,7 @@ class LineupPanel:
     def apply_settings(self, **settings: Any) -> None:
         """Use other model settings (e.g. those the calibration panel fitted), then recompute."""
         self.model = self.model.with_settings(**settings)
+        self._estimates.clear()
         self._coalescer.request()
 
     def evaluate(self, order: list[str]) -> dict[str, Any]:
@@ -174,7 +176,10 @@ class LineupPanel:
         from matchup_widgets.runs import lineup_runs
 
         pitcher = self.pitcher_picker.value
-        estimates = [self.model.predict(b, pitcher) for b in order]  # nine predicts
+        for b in order:  # a swap or a new slot predicts one batter; the others are kept
+            if (b, pitcher) not in self._estimates:
+                self._estimates[(b, pitcher)] = self.model.predict(b, pitcher)
+        estimates = [self._estimates[(b, pitcher)] for b in order]
         probs = np.vstack([e.probabilities.to_numpy(dtype=float) for e in estimates])
         return {"estimates": estimates, "lineup": lineup_runs(probs, max_runs=MAX_RUNS_SHOWN)}
 
