@@ -330,3 +330,21 @@ def test_malformed_tables_raise_only_data_error(df, strict):
     if "exit_velo" in frame:
         ev = frame["exit_velo"].dropna()
         assert ((ev >= 0) & (ev <= 130)).all() and all(math.isfinite(v) for v in ev)
+
+
+@settings(max_examples=15, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(_malformed())
+def test_malformed_csv_files_raise_only_data_error(df):
+    import tempfile
+    from pathlib import Path
+
+    with tempfile.TemporaryDirectory() as tmp:
+        path = Path(tmp) / "pas.csv"
+        df.to_csv(path, index=False)
+        try:
+            pas = load_pas(path)
+        except DataError as exc:
+            assert str(exc) and "\n" not in str(exc)
+            return
+        assert pas.report.n_kept + sum(pas.report.dropped.values()) == pas.report.n_read
+        assert pas.frame["outcome"].isin(OUTCOMES).all()
