@@ -47,6 +47,14 @@ def _cell_counts(cells: np.ndarray, y: np.ndarray, n_cells: int) -> np.ndarray:
     return np.bincount(cells * _K + y, minlength=n_cells * _K).reshape(n_cells, _K).astype(float)
 
 
+def _pull_to_prior(counts: np.ndarray, prior: np.ndarray, alpha: float) -> np.ndarray:
+    """``(counts + alpha * prior) / (n + alpha)`` per cell; an empty cell without prior gets the prior."""
+    denom = counts.sum(axis=1, keepdims=True) + alpha
+    with np.errstate(invalid="ignore", divide="ignore"):
+        table = (counts + alpha * prior) / denom
+    return np.where(denom > 0, table, prior)
+
+
 class _BucketLookup:
     """Outcome frequencies per coarse bucket, pulled toward the league mix by ``alpha`` balls."""
 
@@ -58,7 +66,7 @@ class _BucketLookup:
         n_cells = (len(self.ev_edges) + 1) * (len(self.la_edges) + 1)
         counts = _cell_counts(cells, y, n_cells)
         prior = np.bincount(y, minlength=_K) / len(y)
-        self.table_ = (counts + self.alpha * prior) / (counts.sum(1, keepdims=True) + self.alpha)
+        self.table_ = _pull_to_prior(counts, prior, self.alpha)
         return self
 
     def predict_proba(self, ev: np.ndarray, la: np.ndarray) -> np.ndarray:
@@ -99,7 +107,7 @@ class _SmoothedGrid:
         along_ev = np.tensordot(_gauss_matrix(n_ev, self.sigma), counts, axes=(1, 0))
         smooth = (_gauss_matrix(n_la, self.sigma) @ along_ev).reshape(n_ev * n_la, _K)
         prior = np.bincount(y, minlength=_K) / len(y)
-        self.table_ = (smooth + self.alpha * prior) / (smooth.sum(1, keepdims=True) + self.alpha)
+        self.table_ = _pull_to_prior(smooth, prior, self.alpha)
         return self
 
     def predict_proba(self, ev: np.ndarray, la: np.ndarray) -> np.ndarray:
