@@ -105,7 +105,8 @@ class CalibrationLab:
             value="observed", description="Basis", style=label_style(),
         )
         self.compare_bases = W.Checkbox(
-            value=False, description="Also fit the other basis (for the method comparison)", disabled=not has_contact,
+            value=False, description="Also fit the other basis for the method comparison (slower: 10-30 s)",
+            disabled=not has_contact,
             indent=False,
         )
         self.fit_button = W.Button(description="Fit on held-out games", button_style="primary",
@@ -179,7 +180,7 @@ class CalibrationLab:
         selected = self.basis.value
         bases = [selected]
         if self.compare_bases.value and not self.compare_bases.disabled:
-            bases += [b for b, _ in (("observed", 0), ("contact", 0)) if b != selected]
+            bases += [b for b in ("observed", "contact") if b != selected]
         self.status.clear()
         self.fit_button.disabled = True
         try:
