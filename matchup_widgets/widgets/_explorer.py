@@ -38,9 +38,10 @@ _PLATOON = (
     ("What if: batter hits left-handed", "L"),
     ("What if: batter hits right-handed", "R"),
 )
-_BASIS = (("Observed outcomes", "observed"), ("Contact-expected", "contact"))
+_BASIS = (("Observed", "observed"), ("Contact-based", "contact"))
 _STYLE = {"description_width": "110px"}
 _CACHE_SIZE = 24
+_CONTROL_WIDTH = "336px"
 
 
 class MatchupExplorer:
@@ -140,18 +141,24 @@ class MatchupExplorer:
                 value=int(round(start["pitcher_prior_pa"])), min=0, max=1500, step=10,
                 description="Pitcher prior (PA)", continuous_update=False, style=_STYLE,
             ),
-            "basis": W.ToggleButtons(options=_BASIS, value=start["basis"], description="Counts", style={"description_width": "110px", "button_width": "118px"}),
+            "basis": W.ToggleButtons(
+                options=_BASIS,
+                value=start["basis"],
+                description="Outcomes from",
+                tooltips=["Counted outcomes", "Balls in play replaced by what their exit velocity and launch angle usually give"],
+                style={"description_width": "110px", "button_width": "108px"},
+            ),
             "apply_fitted": W.Button(
                 description="Use fitted settings" if calibration is not None else "Fit and use settings",
                 tooltip="Set the blend, pitcher weight and both priors to the values fitted on held-out games (Brier score)",
-                layout=W.Layout(width="240px"),
+                layout=W.Layout(width="220px", margin="6px 0 0 114px"),
             ),
             "state": W.Dropdown(options=self._state_options(), value=0, description="Base-out state", style=_STYLE),
         }
         for name, widget in c.items():
             widget.add_class(f"mw-{name.replace('_', '-')}")
             if isinstance(widget, (W.FloatSlider, W.IntSlider, W.IntRangeSlider, W.Dropdown)):
-                widget.layout.width = "100%"
+                widget.layout.width = _CONTROL_WIDTH
         self.controls = c
         if batter is not None:
             self.batter_picker.select(batter)
@@ -230,7 +237,7 @@ class MatchupExplorer:
                 section("Model", c["seasons"], c["method"], c["pitcher_weight"], c["batter_prior"], c["pitcher_prior"], c["basis"], c["apply_fitted"]),
                 section("Run context", c["state"], note="Every hitter for the rest of the inning is this matchup."),
             ],
-            layout=W.Layout(width="360px", min_width="360px", padding="0 16px 0 0"),
+            layout=W.Layout(width="356px", min_width="356px", padding="0 16px 0 0", overflow="hidden"),
         )
         right_parts = [self.status.widget, self.headline, self.charts["outcomes"]]
         if self.has_contact:
@@ -280,19 +287,49 @@ class MatchupExplorer:
         side = c["platoon"].value
         return model, c["batter"].value, c["pitcher"].value, {"batter_hand": None if side == "auto" else side}
 
-    def apply_calibration(self, result: Any) -> None:
-        """Set the blend to linear and the weight and priors to fitted values (one update)."""
-        get = result.get if isinstance(result, dict) else lambda k: getattr(result, k)
+    def apply_settings(
+        self,
+        *,
+        method: str | None = None,
+        pitcher_weight: float | None = None,
+        batter_prior_pa: float | None = None,
+        pitcher_prior_pa: float | None = None,
+        basis: str | None = None,
+        seasons: tuple[int, int] | None = None,
+    ) -> None:
+        """Move several controls at once; the outputs update once at the end."""
         c = self.controls
+        with self._coalescer.paused():
+            if method is not None:
+                c["method"].value = method
+            if pitcher_weight is not None:
+                c["pitcher_weight"].value = round(min(max(float(pitcher_weight), 0.0), 1.0), 3)
+            if batter_prior_pa is not None:
+                c["batter_prior"].value = int(round(min(float(batter_prior_pa), c["batter_prior"].max)))
+            if pitcher_prior_pa is not None:
+                c["pitcher_prior"].value = int(round(min(float(pitcher_prior_pa), c["pitcher_prior"].max)))
+            if basis is not None:
+                c["basis"].value = basis
+            if seasons is not None:
+                c["seasons"].value = tuple(int(s) for s in seasons)
+
+    def apply_calibration(self, result: Any) -> None:
+        """Use fitted settings: linear blend, the fitted weight and priors (and basis), in one update.
+
+        ``result`` is a :class:`~matchup_widgets.model.CalibrationResult` or a mapping with
+        ``pitcher_weight``, ``batter_prior_pa``, ``pitcher_prior_pa`` (``basis`` and
+        ``brier`` optional).
+        """
+        get = result.get if isinstance(result, dict) else lambda k, default=None: getattr(result, k, default)
         weight = float(get("pitcher_weight"))
         b_prior, p_prior = float(get("batter_prior_pa")), float(get("pitcher_prior_pa"))
-        with self._coalescer.paused():
-            c["method"].value = "linear"  # calibration fits the linear blend
-            c["pitcher_weight"].value = round(min(max(weight, 0.0), 1.0), 3)
-            c["batter_prior"].value = int(round(min(b_prior, c["batter_prior"].max)))
-            c["pitcher_prior"].value = int(round(min(p_prior, c["pitcher_prior"].max)))
-        brier = getattr(result, "brier", None) if not isinstance(result, dict) else result.get("brier")
-        extra = f"; held-out Brier score {brier:.4f}" if brier is not None else ""
+        # calibration fits the linear blend
+        self.apply_settings(
+            method="linear", pitcher_weight=weight, batter_prior_pa=b_prior, pitcher_prior_pa=p_prior,
+            basis=get("basis", None),
+        )
+        brier = get("brier", None)
+        extra = f"; held-out Brier score {float(brier):.4f}" if brier is not None else ""
         if self.status.last_error is None:
             self.status.note(
                 f"Fitted settings applied: pitcher weight {weight:.2f}, batter prior {b_prior:,.0f} PA, "

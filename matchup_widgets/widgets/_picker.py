@@ -61,18 +61,18 @@ class PlayerPicker:
             description=f"Find {role}",
             continuous_update=True,
             style={"description_width": "110px"},
-            layout=W.Layout(width="100%"),
+            layout=W.Layout(width="336px"),
         )
         self.pick = W.Dropdown(
             options=self._options(""),
             description=title,
             style={"description_width": "110px"},
-            layout=W.Layout(width="100%"),
+            layout=W.Layout(width="336px"),
         )
         self.search.add_class(f"mw-{role}-search")
         self.pick.add_class(f"mw-{role}-pick")
         self.search.observe(self._on_search, names="value")
-        self.widget = W.VBox([self.search, self.pick], layout=W.Layout(width="100%"))
+        self.widget = W.VBox([self.search, self.pick])
 
     def _options(self, text: str) -> list[tuple[str, str]]:
         rows = self._search_players(self.pas, text, role=self.role, limit=self.limit)
