@@ -101,7 +101,8 @@ def contact_tiers(
 
     Each measured batted ball is valued by its modeled outcome probabilities times the run
     value of each batted-ball outcome (the runs layer's linear weights for the dataset's
-    own outcome mix, unless ``weights`` is given) and the tiers are cut at the league
+    own outcome mix, with advancement estimated from the data when it has base-out
+    columns, unless ``weights`` is given) and the tiers are cut at the league
     ``quantiles`` of that value (tier 1 weakest, tier 5 strongest).
 
     Returns
@@ -127,7 +128,13 @@ def contact_tiers(
         return hit[1]
     pred = contact_predictions(pas, model=model)
     if weights is None:
-        weights, source = batted_run_weights(league_outcome_probs(frame_of(pas)["outcome"]))
+        frame = frame_of(pas)
+        advancement = None
+        if all(c in frame.columns for c in BASE_OUT_COLUMNS):  # the data's own advancement
+            from matchup_widgets.runs import estimate_advancement
+
+            advancement = estimate_advancement(frame)
+        weights, source = batted_run_weights(league_outcome_probs(frame["outcome"]), advancement=advancement)
     else:
         source = "given"
     tiers = build_tiers(prob_matrix(pred), weights=weights, weights_source=source, quantiles=quantiles)

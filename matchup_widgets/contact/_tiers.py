@@ -44,7 +44,7 @@ PUBLISHED_RUN_WEIGHTS: dict[str, float] = {
 }
 
 
-def batted_run_weights(league_probs: Any = None) -> tuple[pd.Series, str]:
+def batted_run_weights(league_probs: Any = None, *, advancement: Any = None) -> tuple[pd.Series, str]:
     """Run value of each batted-ball outcome, and where it came from.
 
     Parameters
@@ -52,6 +52,8 @@ def batted_run_weights(league_probs: Any = None) -> tuple[pd.Series, str]:
     league_probs : mapping or array over OUTCOMES, optional
         The league outcome distribution. When given and the runs layer offers
         ``linear_weights``, its RE24 linear weights for this mix are used.
+    advancement : AdvancementTable, optional
+        Passed to ``linear_weights`` (for instance one estimated from the same data).
 
     Returns
     -------
@@ -71,8 +73,9 @@ def batted_run_weights(league_probs: Any = None) -> tuple[pd.Series, str]:
         except ImportError:  # runs layer not installed in this build
             linear_weights = None
         if linear_weights is not None:
-            lw = linear_weights(league_probs)
-            return lw.reindex(list(BATTED)).astype(float), "runs layer linear weights"
+            lw = linear_weights(league_probs, advancement=advancement)
+            source = "runs layer linear weights" + ("" if advancement is None else ", data's own advancement")
+            return lw.reindex(list(BATTED)).astype(float), source
     return pd.Series(PUBLISHED_RUN_WEIGHTS, dtype=float).reindex(list(BATTED)), "published fallback"
 
 

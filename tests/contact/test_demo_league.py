@@ -117,3 +117,25 @@ def test_calibration_fit_on_both_bases(demo_pas):
     assert contact.basis == "contact" and observed.basis == "observed"
     assert contact.n_holdout_pa == observed.n_holdout_pa
     assert 0 < contact.brier < 1 and 0 < observed.brier < 1
+
+
+def test_tiered_singles_on_the_demo_league(demo_pas, demo_model):
+    from matchup_widgets.contact import tiered_advancement, tiered_probabilities
+    from matchup_widgets.runs import run_expectancy
+
+    hits = tiered_advancement(demo_pas, model=demo_model)
+    runner_on_first = 1  # state index: 0 outs, runner on 1st
+    shown = {}
+    for name in ("1B_weak", "1B_strong", "2B_weak", "2B_strong"):
+        t, r = hits.table.row(name)
+        shown[name] = (round(float(t[runner_on_first, 5]), 3), round(float((t * r)[runner_on_first].sum()), 3))
+    league = demo_pas.frame["outcome"].value_counts(normalize=True).to_dict()
+    re_weak = run_expectancy(tiered_probabilities(league, {"1B": 1.0, "2B": 1.0}), advancement=hits.table)[0, 0]
+    re_strong = run_expectancy(tiered_probabilities(league, {"1B": 0.0, "2B": 0.0}), advancement=hits.table)[0, 0]
+    print(
+        f"\ntiered hits (strong = tiers {hits.strong_from}-5), from runner on 1st with 0 outs, "
+        f"(P(runners on 1st & 3rd), runs on the play): {shown}; weak share {hits.weak_share}; "
+        f"runs per inning if every single/double were weak {re_weak:.3f}, strong {re_strong:.3f}"
+    )
+    assert hits.table.outcomes[-4:] == ("1B_weak", "1B_strong", "2B_weak", "2B_strong")
+    assert hits.from_data.loc["1B_weak", runner_on_first] and hits.from_data.loc["1B_strong", runner_on_first]
