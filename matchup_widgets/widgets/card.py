@@ -76,7 +76,10 @@ class MatchupCardExport:
         name = f"card_{_slug(est.batter_name)}_vs_{_slug(est.pitcher_name)}"
         self.status.clear()
         if fmt == "csv":
-            self.link.value = csv_links_html(card_tables(est), prefix=f"{name}_")
+            # the card's numbers, and the tables behind each of the explorer's charts
+            tables = card_tables(est)
+            tables |= {f"explorer_{k}": v for k, v in (getattr(self.explorer, "tables", None) or {}).items()}
+            self.link.value = csv_links_html(tables, prefix=f"{name}_")
             return name
         data = self.render(fmt)
         raw = data if isinstance(data, bytes) else data.encode("utf-8")

@@ -88,8 +88,9 @@ class LineupPanel:
         for i, slot in enumerate(self.slots):
             slot.add_class(f"mw-slot-{i + 1}")
         bench = [b for b in ids if b not in order]
-        self.swap_slot = W.Dropdown(options=[("No swap", None)] + [(f"Slot {i + 1}", i) for i in range(9)],
-                                    value=None, description="Swap out", style={"description_width": "80px"})
+        # -1 means no swap (a None value would show as an empty dropdown in the browser)
+        self.swap_slot = W.Dropdown(options=[("No swap", -1)] + [(f"Slot {i + 1}", i) for i in range(9)],
+                                    value=-1, description="Swap out", style={"description_width": "80px"})
         self.swap_in = W.Dropdown(options=options, value=(bench or ids)[0], description="Bring in",
                                   style={"description_width": "80px"}, layout=W.Layout(width="100%"))
         self.headline = W.HTML()
@@ -152,7 +153,7 @@ class LineupPanel:
     @property
     def swapped_order(self) -> list[str] | None:
         """The order with the swap made, or None without a swap."""
-        if self.swap_slot.value is None:
+        if self.swap_slot.value < 0:
             return None
         order = self.order
         order[self.swap_slot.value] = self.swap_in.value
@@ -256,4 +257,4 @@ def _slots_html(slots: pd.DataFrame) -> str:
         f"<td style='padding:2px 8px'>{r.runs_per_pa:+.3f}</td><td style='padding:2px 8px'>{r.pa_per_9:.2f}</td></tr>"
         for r in slots.itertuples(index=False)
     )
-    return f"<table style='border-collapse:collapse;font-size:13px'><tr>{head}</tr>{rows}</table>"
+    return f"<table style='border-collapse:collapse;font-size:13px;white-space:nowrap'><tr>{head}</tr>{rows}</table>"

@@ -27,11 +27,16 @@ MODES: tuple[tuple[str, str], ...] = (
 _OTHER = {"pitcher": "batter", "batter": "pitcher"}
 
 
-def _state_choices() -> list[tuple[str, Any]]:
+#: Value of the "Rank by" control meaning run value per PA (the others index the 24 states).
+PER_PA = -1
+
+
+def _state_choices() -> list[tuple[str, int]]:
     from matchup_widgets.runs import STATES
 
-    return [("Per plate appearance (run value)", None)] + [
-        (f"From {label}: expected runs", (i // 8, i % 8)) for i, label in enumerate(STATES[:24])
+    # a None value would show as an empty dropdown in the browser: -1 stands for "per PA"
+    return [("Per plate appearance (run value)", PER_PA)] + [
+        (f"From {label}: expected runs", i) for i, label in enumerate(STATES[:24])
     ]
 
 
@@ -79,7 +84,7 @@ class OptionRanking:
         self.candidates = W.SelectMultiple(options=[], rows=10, description="Candidates", style=label_style(),
                                            layout=W.Layout(width="100%"))
         self.candidates.add_class("mw-candidates")
-        self.state = W.Dropdown(options=_state_choices(), value=None, description="Rank by", style=label_style(),
+        self.state = W.Dropdown(options=_state_choices(), value=PER_PA, description="Rank by", style=label_style(),
                                 layout=W.Layout(width="100%"))
         self.settings_note = W.HTML()
         self.table = W.HTML()
@@ -167,8 +172,8 @@ class OptionRanking:
         ids = list(self.candidates.value)
         if fixed is None or not ids:
             return pd.DataFrame()
-        state = self.state.value
-        outs, bases = state if state is not None else (None, None)
+        state = int(self.state.value)
+        outs, bases = (None, None) if state == PER_PA else divmod(state, 8)  # index = 8 * outs + bases
         rows = []
         for cid in ids:  # a handful of candidates, each one predict
             batter, pitcher = (cid, fixed) if self.fixed_role == "pitcher" else (fixed, cid)

@@ -66,7 +66,7 @@ def test_bench_against_one_pitcher_ranked_by_core_run_values(pas, model):
 def test_relievers_against_one_batter_by_expected_runs_in_a_state(pas, model):
     panel = OptionRanking(pas, model=model, mode="batter", fixed="b1")
     panel.candidates.value = ("p0", "p1", "p3")  # as the browser would
-    panel.state.value = (2, 3)  # two outs, runners on first and second
+    panel.state.value = 2 * 8 + 3  # two outs, runners on first and second (state index 8 * outs + bases)
     assert panel.status.last_error is None, panel.status.widget.value
     table = panel.ranking
     assert table["value"].is_monotonic_increasing  # pitchers: fewest runs first
