@@ -139,6 +139,22 @@ def brier_surface_chart(
     return style(chart)
 
 
+def pending_chart(message: str, *, width: int = 320, height: int = 60) -> alt.Chart:
+    """A chart that only says what to do first (shown before a panel has results).
+
+    Examples
+    --------
+    >>> pending_chart("Click fit.").to_dict()["mark"]["type"]
+    'text'
+    """
+    return style(
+        alt.Chart(pd.DataFrame({"message": [message]}))
+        .mark_text(align="left", x=0, y=height / 2, color=MUTED, fontSize=13)
+        .encode(text="message:N")
+        .properties(width=width, height=height)
+    )
+
+
 def skill_chart(skill: pd.DataFrame, *, width: int = 320) -> alt.LayerChart:
     """Bars of the Brier skill score of the fitted blend over each baseline forecast.
 

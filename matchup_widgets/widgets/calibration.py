@@ -18,6 +18,7 @@ from matchup_widgets.charts import (
     reliability_chart,
     skill_chart,
 )
+from matchup_widgets.charts._calibration import pending_chart
 from matchup_widgets.export import csv_links_html, write_tables
 
 from ._common import StatusLine, guarded, label_style, live_chart, section, set_chart
@@ -125,7 +126,7 @@ class CalibrationLab:
         self.csv_button = W.Button(description="CSV of the numbers", disabled=True, layout=W.Layout(width="180px"))
         self.csv_button.on_click(guarded(self.status, "Could not prepare the CSV files")(self._on_csv))
 
-        self.surface_chart = live_chart(_placeholder_surface())
+        self.surface_chart = live_chart(pending_chart("Click 'Fit on held-out games' to draw the Brier surface."))
         self.surface_chart.add_class("mw-brier-surface")
         self.skill_chart = live_chart(skill_chart(pd.DataFrame({"baseline": [], "skill": []})))
         self.methods_chart = live_chart(method_comparison_chart(pd.DataFrame({"method": [], "basis": [], "brier": []})))
@@ -311,12 +312,6 @@ class CalibrationLab:
         self.apply_button.disabled = self.explorer is None
         self.csv_button.disabled = False
         self.downloads.value = ""
-
-
-def _placeholder_surface() -> Any:
-    """An empty surface so the chart widget exists before the first fit."""
-    empty = pd.DataFrame({"pitcher_weight": [0.5], "batter_prior_pa": [0.0], "brier": [0.0]})
-    return brier_surface_chart(empty)
 
 
 def _empty_reliability() -> pd.DataFrame:
