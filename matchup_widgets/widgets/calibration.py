@@ -37,8 +37,10 @@ def load_panel_data(path: str | None = None) -> Any:
 
     from matchup_widgets.data import load_pas
 
+    from ._explorer import DATA_ENV
+
     if path is None:
-        path = os.environ.get("MATCHUP_WIDGETS_DATA")
+        path = os.environ.get(DATA_ENV)
     if not path:
         from matchup_widgets.data.demo import demo_path
 
