@@ -45,8 +45,12 @@ def shrink_shares(counts: Any, league: Any, prior: float) -> np.ndarray:
         msg = f"the prior size must be a finite number >= 0 (batted balls), got {prior!r}."
         raise ValueError(msg)
     lg = lg / lg.sum()
-    denom = c.sum() + prior
-    return lg.copy() if denom == 0 else (c + prior * lg) / denom
+    n = c.sum()
+    if n == 0:
+        return lg.copy()
+    # the same mean written as a weighted average, so a tiny prior cannot underflow
+    w = prior / (n + prior)
+    return (1.0 - w) * (c / n) + w * lg
 
 
 def matchup_contact_mix(
