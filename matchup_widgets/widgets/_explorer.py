@@ -100,6 +100,7 @@ class MatchupExplorer:
         self.tables: dict[str, pd.DataFrame] = {}
         self._cache: OrderedDict[Any, Any] = OrderedDict()
         self._last_key: Any = None
+        self._contact_basis_used = False
         self.has_contact = {"exit_velo", "launch_angle"} <= set(pas.table.columns)
 
         start = self.model.get_params()
@@ -372,6 +373,10 @@ class MatchupExplorer:
         if batter is None or pitcher is None:
             self.status.warn("Pick a batter and a pitcher.")
             return
+        if settings["basis"] == "contact" and not self._contact_basis_used:
+            # the first contact-based fit takes seconds; say so while it runs
+            self.status.note("Building contact-based counts for the whole league (first use takes several seconds)...")
+            self._contact_basis_used = True
         est = model.predict(batter, pitcher, **kwargs)
         self._draw("outcomes", outcome_table(est))
         self.headline.value = headline_html(est)

@@ -98,6 +98,16 @@ def test_model_controls_reach_the_model(explorer, control, value, setting, expec
     _assert_matches_model(ex)
 
 
+def test_contact_basis(explorer):
+    ex = explorer
+    ex.controls["basis"].value = "contact"
+    assert ex.status.last_error is None, ex.status.widget.value
+    assert ex.estimate.settings["basis"] == "contact"
+    _assert_matches_model(ex)
+    ex.controls["basis"].value = "observed"
+    assert ex.estimate.settings["basis"] == "observed"
+
+
 def test_platoon_what_if(explorer):
     ex = explorer
     ex.controls["platoon"].value = "L"
