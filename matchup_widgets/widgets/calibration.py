@@ -95,6 +95,7 @@ class CalibrationLab:
         self.calibrate_options = dict(calibrate_options)
         self.result_ = None
         self.results_: dict[str, Any] = {}
+        self.targets: list[Any] = []  # other panels with apply_settings(**settings)
         has_contact = "exit_velo" in getattr(pas, "frame", pd.DataFrame()).columns
 
         self.status = StatusLine()
@@ -119,6 +120,11 @@ class CalibrationLab:
         self.summary = W.HTML()
         self.summary.add_class("mw-fit-summary")
         self.surface_y = W.ToggleButtons(options=list(_SURFACE_Y), value="Batter prior (PA)", description="Rows")
+        self.send_method = W.Dropdown(
+            options=[("Weighted mix of rates (fitted weight and priors)", "linear"),
+                     ("Odds ratio (fitted priors)", "odds-ratio")],
+            value="linear", description="Send", style=label_style(), layout=W.Layout(width="420px"),
+        )
         self.apply_button = W.Button(description="Use these settings in the explorer", disabled=True,
                                      layout=W.Layout(width="280px"))
         self.apply_button.add_class("mw-apply-settings")
@@ -155,7 +161,9 @@ class CalibrationLab:
                 section("Skill over simple forecasts", self.skill_chart),
                 section("Blend methods compared", self.methods_chart),
                 section("Reliability per outcome", self.reliability_chart),
-                W.HBox([self.apply_button, self.applied]),
+                section("Use the fitted settings", self.send_method, W.HBox([self.apply_button, self.applied]),
+                        note="The weighted mix is fitted in closed form; the odds-ratio blend has no weight, "
+                        "only its best prior sizes. Compare their Brier scores above."),
                 W.HBox([self.csv_button, self.downloads]),
             ]
         )
@@ -206,33 +214,60 @@ class CalibrationLab:
         self._show_result()
         return self.result_
 
-    def settings(self) -> dict[str, Any]:
-        """The settings the last fit chose (what the apply button sends to the explorer)."""
+    def settings(self, method: str | None = None) -> dict[str, Any]:
+        """The settings the last fit chose for ``method`` (default: the "Send" choice).
+
+        ``linear``: the fitted pitcher weight and prior sizes; ``odds-ratio``: that method's
+        best prior sizes from the method comparison (the weight is kept for reference).
+        """
         if self.result_ is None:
             msg = "no fit yet: click 'Fit on held-out games' (or call fit()) first."
             raise RuntimeError(msg)
         r = self.result_
-        return {
+        method = self.send_method.value if method is None else method
+        out = {
             "method": "linear",
             "pitcher_weight": float(r.pitcher_weight),
             "batter_prior_pa": float(r.batter_prior_pa),
             "pitcher_prior_pa": float(r.pitcher_prior_pa),
             "basis": r.basis,
         }
+        if method == "odds-ratio":
+            row = r.methods.set_index("method").loc["odds-ratio"]
+            out |= {"method": "odds-ratio", "batter_prior_pa": float(row["batter_prior_pa"]),
+                    "pitcher_prior_pa": float(row["pitcher_prior_pa"])}
+        elif method != "linear":
+            msg = f"method must be 'linear' or 'odds-ratio' to send; got {method!r}."
+            raise ValueError(msg)
+        return out
+
+    def connect(self, *panels: Any) -> None:
+        """Also send the fitted settings to ``panels`` (objects with ``apply_settings(**settings)``)."""
+        self.targets.extend(panels)
+        if self.result_ is not None:
+            self.apply_button.disabled = False
 
     def apply(self) -> dict[str, Any]:
-        """Push the fitted settings into the explorer; return what was sent."""
-        if self.explorer is None:
-            msg = "this panel has no explorer to send settings to; build it with CalibrationLab(pas, explorer=...)."
+        """Push the chosen fitted settings into the explorer and connected panels; return them."""
+        if self.explorer is None and not self.targets:
+            msg = ("this panel has nowhere to send settings; build it with CalibrationLab(pas, explorer=...) "
+                   "or connect(panel).")
             raise RuntimeError(msg)
         sent = self.settings()
-        if hasattr(self.explorer, "apply_calibration"):
-            # the explorer sets blend, weight and priors in one update and notes the Brier score
-            self.explorer.apply_calibration(self.result_)
-        else:
-            self.explorer.apply_settings(**sent)
+        if self.explorer is not None:
+            if sent["method"] == "linear" and hasattr(self.explorer, "apply_calibration"):
+                # the explorer sets blend, weight and priors in one update and notes the Brier score
+                self.explorer.apply_calibration(sent | {"brier": self.result_.brier})
+            else:
+                self.explorer.apply_settings(**sent)
+        for panel in self.targets:
+            panel.apply_settings(**sent)
+        where = "the explorer" if self.explorer is not None else ""
+        if self.targets:
+            where += (" and " if where else "") + f"{len(self.targets)} other panel(s)"
+        weight = f"pitcher weight {sent['pitcher_weight']:.2f}, " if sent["method"] == "linear" else ""
         self.applied.value = (
-            f"Sent to the explorer: linear blend, pitcher weight {sent['pitcher_weight']:.2f}, "
+            f"Sent to {where}: {html.escape(sent['method'])} blend, {weight}"
             f"batter prior {sent['batter_prior_pa']:g} PA, pitcher prior {sent['pitcher_prior_pa']:g} PA, "
             f"{html.escape(sent['basis'])} basis."
         )
@@ -311,7 +346,7 @@ class CalibrationLab:
         set_chart(self.skill_chart, skill_chart(self._skill_table()))
         set_chart(self.methods_chart, method_comparison_chart(self._methods_table()))
         set_chart(self.reliability_chart, reliability_chart(r.reliability))
-        self.apply_button.disabled = self.explorer is None
+        self.apply_button.disabled = self.explorer is None and not self.targets
         self.csv_button.disabled = False
         self.downloads.value = ""
 

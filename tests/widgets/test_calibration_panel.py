@@ -119,6 +119,31 @@ def test_apply_pushes_the_fitted_settings(fitted):
     assert f"pitcher weight {r.pitcher_weight:.2f}" in lab.applied.value
 
 
+def test_odds_ratio_choice_sends_that_methods_priors_to_connected_panels(pas, fitted):
+    from matchup_widgets.model import MatchupModel
+    from matchup_widgets.widgets import LineupPanel, OptionRanking
+
+    lab, receiver = fitted
+    model = MatchupModel().fit(pas)
+    ranking = OptionRanking(pas, model=model, fixed="p1", candidates=["b0", "b2"])
+    lineup = LineupPanel(pas, model=model, pitcher="p1", order=[f"b{i}" for i in range(9)])
+    lab.connect(ranking, lineup)
+    lab.send_method.value = "odds-ratio"
+    lab.apply_button.click()
+    assert lab.status.last_error is None, lab.status.widget.value
+    row = lab.result_.methods.set_index("method").loc["odds-ratio"]
+    sent = receiver.received[-1]
+    assert sent["method"] == "odds-ratio"
+    assert (sent["batter_prior_pa"], sent["pitcher_prior_pa"]) == (row["batter_prior_pa"], row["pitcher_prior_pa"])
+    for panel in (ranking, lineup):
+        params = panel.model.get_params()
+        assert params["method"] == "odds-ratio"
+        assert params["batter_prior_pa"] == row["batter_prior_pa"]
+    assert "2 other panel(s)" in lab.applied.value
+    lab.targets.clear()
+    lab.send_method.value = "linear"
+
+
 def test_apply_reaches_the_real_explorer(pas, fitted):
     from matchup_widgets.widgets._explorer import MatchupExplorer
 
@@ -127,6 +152,7 @@ def test_apply_reaches_the_real_explorer(pas, fitted):
     lab.explorer = explorer
     explorer.controls["method"].value = "odds-ratio"
     lab.apply()
+    assert "held-out Brier score" in explorer.status.widget.value
     r = lab.result_
     assert explorer.controls["method"].value == "linear"
     assert explorer.controls["pitcher_weight"].value == pytest.approx(r.pitcher_weight, abs=0.005)
