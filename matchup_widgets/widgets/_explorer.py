@@ -122,6 +122,7 @@ class MatchupExplorer:
                 description="Seasons",
                 continuous_update=False,
                 disabled=self.seasons_all[0] == self.seasons_all[1],
+                layout=W.Layout(width="300px"),
                 style=_STYLE,
             ),
             "method": W.Dropdown(
@@ -158,7 +159,7 @@ class MatchupExplorer:
         }
         for name, widget in c.items():
             widget.add_class(f"mw-{name.replace('_', '-')}")
-            if isinstance(widget, (W.FloatSlider, W.IntSlider, W.IntRangeSlider, W.Dropdown)):
+            if isinstance(widget, (W.FloatSlider, W.IntSlider, W.Dropdown)):
                 widget.layout.width = _CONTROL_WIDTH
         self.controls = c
         if batter is not None:

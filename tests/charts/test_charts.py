@@ -124,3 +124,30 @@ def test_chart_renders_offline_to_svg():
     svg = vlc.vegalite_to_svg(outcome_bars_chart(_bars_table()).to_dict())
     assert "Share of plate appearances" in svg
     assert "Strikeout" in svg
+
+
+def _tables_for_every_builder():
+    heat = pd.DataFrame([{"side": s, "exit_velo_bin": e, "launch_angle_bin": a, "share": 0.25, "n": 3}
+                         for s in ("batter", "pitcher") for a in ("<10", "10+") for e in ("<95", "95+")])
+    tiers = pd.DataFrame({"side": ["batter", "matchup"] * 2, "tier": ["soft", "soft", "hard", "hard"],
+                          "share": [0.5, 0.6, 0.5, 0.4]})
+    runs = pd.DataFrame({"side": ["matchup", "league_hitter"], "expected_runs": [0.5, 0.48],
+                         "scoring_chance": [0.27, 0.26]})
+    return [(outcome_bars_chart, _bars_table()), (contact_heatmap_chart, heat),
+            (tier_shares_chart, tiers), (run_context_chart, runs)]
+
+
+@pytest.mark.parametrize(("builder", "table"), _tables_for_every_builder(),
+                         ids=lambda x: getattr(x, "__name__", "table"))
+def test_chart_rows_are_the_rows_the_builder_embeds(builder, table):
+    from matchup_widgets.charts import chart_rows
+
+    rows, key = chart_rows(builder, table)
+    (embedded,) = builder(table).to_dict()["datasets"].values()
+    assert rows == embedded
+    # a table with other numbers but the same categories keeps the layout key
+    other = table.copy()
+    num = [c for c in other.columns if c in ("probability", "share", "expected_runs")][0]
+    other[num] = other[num] * 0.5
+    assert chart_rows(builder, other)[1] == key
+    assert chart_rows(builder, other)[0] != rows
