@@ -78,6 +78,13 @@ def card_html(chart: alt.TopLevelMixin, *, title: str, tables: Mapping[str, pd.D
     -------
     str
         The HTML document.
+
+    Examples
+    --------
+    >>> c = alt.Chart(pd.DataFrame({"a": [1]})).mark_bar().encode(x="a:Q")
+    >>> page = card_html(c, title="Card", tables={"numbers": pd.DataFrame({"a": [1]})})
+    >>> "vegaEmbed" in page, "<h3>Numbers</h3>" in page, "cdn." in page
+    (True, True, False)
     """
     spec = chart.to_json(indent=None)
     spec = spec.replace("</", "<\\/")  # keep the JSON from closing the script element
@@ -148,6 +155,14 @@ def write_card(
     -------
     Path
         The file written.
+
+    Examples
+    --------
+    >>> import tempfile
+    >>> c = alt.Chart(pd.DataFrame({"a": [1]})).mark_bar().encode(x="a:Q")
+    >>> with tempfile.TemporaryDirectory() as d:
+    ...     write_card(c, Path(d) / "card.svg").read_text()[:4]
+    '<svg'
     """
     out = Path(path)
     fmt = card_format(out)
@@ -233,6 +248,22 @@ def card_tables(estimate: Any) -> dict[str, pd.DataFrame]:
         ``outcomes`` (code, label, matchup probability, interval ends, league), ``summary``
         (rates, wOBA and runs per PA of matchup, batter, pitcher, league) and ``facts``
         (one row: players, split, PA counts, interval level and every setting).
+
+    Examples
+    --------
+    >>> import pandas as pd
+    >>> from matchup_widgets.data import load_pas
+    >>> from matchup_widgets.model import MatchupModel
+    >>> df = pd.DataFrame({
+    ...     "game_id": ["g1"] * 6, "game_date": ["2031-04-02"] * 6,
+    ...     "batter_id": ["b1"] * 3 + ["b2"] * 3, "pitcher_id": ["p1"] * 6,
+    ...     "batter_name": ["Ada Quill"] * 3 + ["Bo Reed"] * 3, "pitcher_name": ["Cy Moss"] * 6,
+    ...     "batter_hand": ["L"] * 3 + ["R"] * 3, "pitcher_hand": ["R"] * 6,
+    ...     "outcome": ["K", "1B", "HR", "BB", "GB_OUT", "AIR_OUT"]})
+    >>> est = MatchupModel(n_draws=200).fit(load_pas(df)).predict("b1", "p1")
+    >>> t = card_tables(est)
+    >>> sorted(t), float(t["facts"].loc[0, "batter_pa"]), t["outcomes"]["outcome"].iloc[0]
+    (['facts', 'outcomes', 'summary'], 3.0, 'K')
     """
     from matchup_widgets.data import OUTCOME_LABELS, OUTCOMES
 

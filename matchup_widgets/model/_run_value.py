@@ -81,6 +81,24 @@ def run_value_interval(
         ``measure`` (``"runs_per_pa"`` or ``"expected_runs"``), ``value`` (at the point
         estimate), ``lo``, ``hi`` (widened to contain ``value``), ``interval``, ``state``
         (label or None), ``draws`` (the values of the draws).
+
+    Examples
+    --------
+    >>> import pandas as pd
+    >>> from matchup_widgets.data import load_pas
+    >>> from matchup_widgets.model import MatchupModel
+    >>> df = pd.DataFrame({
+    ...     "game_id": ["g1"] * 6, "game_date": ["2031-04-02"] * 6,
+    ...     "batter_id": ["b1"] * 3 + ["b2"] * 3, "pitcher_id": ["p1"] * 6,
+    ...     "batter_name": ["Ada Quill"] * 3 + ["Bo Reed"] * 3, "pitcher_name": ["Cy Moss"] * 6,
+    ...     "batter_hand": ["L"] * 3 + ["R"] * 3, "pitcher_hand": ["R"] * 6,
+    ...     "outcome": ["K", "1B", "HR", "BB", "GB_OUT", "AIR_OUT"]})
+    >>> est = MatchupModel(n_draws=200).fit(load_pas(df)).predict("b1", "p1")
+    >>> out = run_value_interval(est)
+    >>> out["measure"], out["lo"] <= out["value"] <= out["hi"], abs(out["value"] - est.runs_per_pa) < 1e-12
+    ('runs_per_pa', True, True)
+    >>> run_value_interval(est, outs=2, bases=0, n_draws=50)["state"]
+    'Bases empty, 2 outs'
     """
     from matchup_widgets import runs
 
