@@ -14,7 +14,7 @@ from ._calibrate_surface import (
 )
 from ._distributions import league_distributions, outcome_distributions, split_label, with_rates
 from ._empirical_bayes import empirical_bayes_prior
-from ._intervals import INTERVAL_FLOOR, matchup_interval, posterior_draws
+from ._intervals import INTERVAL_FLOOR, matchup_draws, matchup_interval, posterior_draws
 from ._scores import brier_score, log_loss, reliability_table
 from ._run_value import estimate_draws, run_value_interval
 from ._matchup import BASES, MatchupEstimate, MatchupModel
@@ -61,6 +61,7 @@ __all__ = [
     "blend",
     "empirical_bayes_prior",
     "linear_blend",
+    "matchup_draws",
     "matchup_interval",
     "odds_ratio_blend",
     "posterior_draws",

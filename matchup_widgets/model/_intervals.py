@@ -133,11 +133,11 @@ def matchup_interval(
     if not 0.0 < float(interval) < 1.0:
         msg = f"interval must lie strictly between 0 and 1 (e.g. 0.8 for an 80% interval); got {interval}."
         raise ValueError(msg)
-    rng = np.random.default_rng(seed)
-    b = posterior_draws(batter_counts, league, batter_prior_pa, n_draws=n_draws, seed=rng)
-    q = posterior_draws(pitcher_counts, league, pitcher_prior_pa, n_draws=n_draws, seed=rng)
-    lg = as_probabilities(league, "league")
-    draws = blend(method, b, q, lg, **weights)
+    draws = matchup_draws(
+        method, batter_counts, pitcher_counts, league,
+        batter_prior_pa=batter_prior_pa, pitcher_prior_pa=pitcher_prior_pa,
+        n_draws=n_draws, seed=seed, **weights,
+    )
     tail = (1.0 - float(interval)) / 2.0
     lo, hi = np.quantile(draws, [tail, 1.0 - tail], axis=0)
     if point is not None:
@@ -148,3 +148,42 @@ def matchup_interval(
     with np.errstate(invalid="ignore", divide="ignore"):
         ess = (mean * (1 - mean)).sum(axis=-1) / var.sum(axis=-1) - 1.0
     return {"lo": lo, "hi": hi, "effective_pa": ess}
+
+
+def matchup_draws(
+    method: str,
+    batter_counts: Any,
+    pitcher_counts: Any,
+    league: Any,
+    *,
+    batter_prior_pa: Any,
+    pitcher_prior_pa: Any,
+    n_draws: int = 2000,
+    seed: int | None = 0,
+    **weights: Any,
+) -> np.ndarray:
+    """Posterior draws of a blended matchup distribution: the draws behind its intervals.
+
+    Each side is drawn from its Dirichlet posterior (:func:`posterior_draws`; batter first,
+    then pitcher, from one generator seeded with ``seed``) and every pair of draws is
+    blended with the same method and weights. :func:`matchup_interval` takes quantiles of
+    these draws; run values carry them through linear weights or the base-out chain.
+
+    Returns
+    -------
+    numpy.ndarray, shape (n_draws, ..., 9)
+
+    Examples
+    --------
+    >>> import numpy as np
+    >>> c = np.array([50, 10, 1, 25, 5, 1, 3, 55, 50])
+    >>> d = matchup_draws("linear", c, c, c / c.sum(), batter_prior_pa=0,
+    ...                   pitcher_prior_pa=0, pitcher_weight=0.5, n_draws=100)
+    >>> d.shape, bool(np.allclose(d.sum(axis=-1), 1.0))
+    ((100, 9), True)
+    """
+    rng = np.random.default_rng(seed)
+    b = posterior_draws(batter_counts, league, batter_prior_pa, n_draws=n_draws, seed=rng)
+    q = posterior_draws(pitcher_counts, league, pitcher_prior_pa, n_draws=n_draws, seed=rng)
+    lg = as_probabilities(league, "league")
+    return np.asarray(blend(method, b, q, lg, **weights))

@@ -2,7 +2,7 @@
 
 :func:`matchup_interval` gives an interval per outcome; ranking options needs one interval on
 a single number. The same posterior draws (same seed, same order, so they are the draws
-behind the estimate's own intervals) are pushed through the linear weights (runs per PA) or
+behind the estimate's own intervals, from :func:`matchup_draws`) are pushed through the linear weights (runs per PA) or
 through the base-out chain (expected runs from one state).
 """
 
@@ -14,8 +14,7 @@ import numpy as np
 
 from matchup_widgets.data import OUTCOMES
 
-from ._blend import blend
-from ._intervals import posterior_draws
+from ._intervals import matchup_draws
 from ._summary import run_weights
 
 
@@ -36,17 +35,19 @@ def estimate_draws(estimate: Any, *, n_draws: int | None = None) -> np.ndarray:
     """
     s = estimate.settings
     codes = list(OUTCOMES)
-    league = estimate.distributions.loc["league", codes].to_numpy(dtype=float)
-    rng = np.random.default_rng(s["seed"])
-    n = int(s["n_draws"] if n_draws is None else n_draws)
-    # batter first, then pitcher, from one generator: the order matchup_interval uses
-    b = posterior_draws(estimate.counts.loc["batter", codes].to_numpy(dtype=float), league,
-                        s["batter_prior_pa"], n_draws=n, seed=rng)
-    q = posterior_draws(estimate.counts.loc["pitcher", codes].to_numpy(dtype=float), league,
-                        s["pitcher_prior_pa"], n_draws=n, seed=rng)
     weights = {k: s[k] for k in ("pitcher_weight", "first_weight", "in_play_weight",
                                  "batter_exponent", "pitcher_exponent")}
-    return np.asarray(blend(s["method"], b, q, league, **weights))
+    return matchup_draws(
+        s["method"],
+        estimate.counts.loc["batter", codes].to_numpy(dtype=float),
+        estimate.counts.loc["pitcher", codes].to_numpy(dtype=float),
+        estimate.distributions.loc["league", codes].to_numpy(dtype=float),
+        batter_prior_pa=s["batter_prior_pa"],
+        pitcher_prior_pa=s["pitcher_prior_pa"],
+        n_draws=int(s["n_draws"] if n_draws is None else n_draws),
+        seed=s["seed"],
+        **weights,
+    )
 
 
 def run_value_interval(
