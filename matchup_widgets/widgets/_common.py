@@ -72,6 +72,16 @@ class LiveChart:
         The table last shown.
     n_builds, n_swaps : int
         How many updates rebuilt the chart and how many only swapped rows.
+
+    Examples
+    --------
+    >>> import pandas as pd
+    >>> from matchup_widgets.charts import tier_shares_chart
+    >>> live = LiveChart(tier_shares_chart, pd.DataFrame({"side": ["matchup"], "tier": ["soft"], "share": [0.5]}))
+    >>> live.update(pd.DataFrame({"side": ["matchup"], "tier": ["soft"], "share": [0.7]}))
+    True
+    >>> live.rows()[0]["share"], live.n_builds, live.n_swaps
+    (0.7, 1, 1)
     """
 
     def __init__(self, builder: Callable[..., Any], table: Any, *, css_class: str | None = None, **options: Any) -> None:
