@@ -363,5 +363,10 @@ def chart_rows(builder, table: pd.DataFrame) -> tuple[list[dict], tuple] | None:
     if prepare is None:
         return None
     data, key = prepare(table)
-    values = alt.data_transformers.get()(data)["values"]
-    return values, key
+    return _records(data), key
+
+
+def _records(data: pd.DataFrame) -> list[dict]:
+    """JSON-ready rows: Python scalars, missing values as None (as altair embeds them)."""
+    plain = data.astype(object)
+    return plain.where(data.notna().to_numpy(), None).to_dict("records")
