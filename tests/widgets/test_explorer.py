@@ -225,3 +225,23 @@ def test_small_sample_note(explorer):
     assert ex.estimate.batter_id == fewest["player_id"]
     small = ex.estimate.pa["batter"] < SMALL_SAMPLE_PA
     assert ("Small sample" in ex.headline.value) == small
+
+
+def test_fit_and_use_runs_calibration_once(explorer, monkeypatch):
+    import matchup_widgets.model as model_module
+
+    ex = explorer
+    calls = []
+
+    def fake_calibrate(pas, **kwargs):
+        calls.append(kwargs)
+        return {"pitcher_weight": 0.52, "batter_prior_pa": 200.0, "pitcher_prior_pa": 400.0}
+
+    monkeypatch.setattr(model_module, "calibrate", fake_calibrate)
+    ex.calibration = None
+    ex.controls["apply_fitted"].click()
+    ex.controls["apply_fitted"].click()
+    assert len(calls) == 1  # fitted once, then reused
+    assert ex.controls["apply_fitted"].description == "Use fitted settings"
+    assert ex.controls["pitcher_weight"].value == pytest.approx(0.52)
+    assert ex.estimate.settings["pitcher_prior_pa"] == 400.0
