@@ -59,10 +59,13 @@ def shrink(counts: Any, league: Any, prior_pa: Any) -> Any:
     c, lg = np.broadcast_to(c, shape), np.broadcast_to(lg, shape)
     prior = np.broadcast_to(prior[..., None], shape)
     n = np.broadcast_to(n[..., None], shape)
-    denom = n + prior
-    with np.errstate(invalid="ignore", divide="ignore"):
-        # infinite prior: the counts no longer matter, the result is the league
-        out = np.where(np.isinf(prior), lg, (c + np.where(np.isinf(prior), 0.0, prior) * lg) / denom)
-    out = np.where(denom > 0, out, lg)
+    # Written as a weighted average of the raw rates and the league, with the prior's share
+    # prior / (n + prior), so that neither a tiny (even subnormal) prior nor an infinite
+    # one loses precision: n = 0 gives the league, an infinite prior gives the league.
+    with np.errstate(invalid="ignore", divide="ignore", over="ignore"):
+        prior_share = np.where(np.isinf(prior), 1.0, prior / (n + prior))
+        rates = np.where(n > 0, c / n, lg)
+    prior_share = np.where(n > 0, prior_share, 1.0)
+    out = (1.0 - prior_share) * rates + prior_share * lg
     out = out / out.sum(axis=-1, keepdims=True)
     return relabel(out, counts)
