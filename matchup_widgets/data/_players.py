@@ -151,12 +151,13 @@ def resolve_player(pas: Any, query: str, *, role: str) -> str:
             more = f" and {len(hit) - 8} more" if len(hit) > 8 else ""
             msg = f"{role} {text!r} matches {len(hit)} players: {_describe(shown)}{more}. Give the id instead."
             raise DataError(msg)
-    close = difflib.get_close_matches(needle, list(names), n=5, cutoff=0.5)
-    if close:
-        shown = roster[names.isin(close).to_numpy()]
-        hint = f" Closest names: {_describe(shown)}."
-    else:
-        hint = ""
+    # the closest spellings; when none is close, still the nearest few so the user has a lead
+    candidates = list(names)
+    close = difflib.get_close_matches(needle, candidates, n=5, cutoff=0.5) or difflib.get_close_matches(
+        needle, candidates, n=3, cutoff=0.0
+    )
+    shown = roster[names.isin(close).to_numpy()]
+    hint = f" Closest names: {_describe(shown)}." if len(shown) else ""
     msg = (
         f"No {role} matches {text!r} among {len(roster):,} {role}s.{hint} "
         "Give an id or a name from the data (search_players lists them)."

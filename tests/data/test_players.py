@@ -71,8 +71,9 @@ def test_unknown_names_suggest_close_matches(pas):
         resolve_player(pas, "Ada Quilt", role="batter")
 
 
-def test_unknown_without_close_matches(pas):
-    with pytest.raises(DataError, match=r"No pitcher matches 'zzz' among 3 pitchers\. Give an id"):
+def test_unknown_without_close_matches_still_lists_the_nearest(pas):
+    # nothing is spelled like 'zzz', but the message still gives the nearest names as a lead
+    with pytest.raises(DataError, match=r"No pitcher matches 'zzz' among 3 pitchers\. Closest names: .*\(p1.*Give an id"):
         resolve_player(pas, "zzz", role="pitcher")
     with pytest.raises(ValueError, match=r"role must be"):
         resolve_player(pas, "b1", role="fielder")
