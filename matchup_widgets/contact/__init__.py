@@ -29,7 +29,7 @@ from ._advance import (
     weak_shares_from_mix,
 )
 from ._basis import contact_outcome_counts
-from ._cache import clear_contact_cache
+from ._cache import clear_contact_cache, contact_cache_info
 from ._dataset import (
     contact_predictions,
     contact_tiers,
@@ -73,6 +73,7 @@ __all__ = [
     "bucket_shares",
     "build_tiers",
     "clear_contact_cache",
+    "contact_cache_info",
     "contact_model_for",
     "contact_outcome_counts",
     "contact_predictions",

@@ -10,7 +10,8 @@ from __future__ import annotations
 
 import hashlib
 import weakref
-from collections import OrderedDict
+from collections import Counter, OrderedDict
+from collections.abc import Callable
 from typing import Any
 
 import pandas as pd
@@ -24,6 +25,8 @@ _FINGERPRINT_COLUMNS = (
 )
 _by_object: weakref.WeakKeyDictionary = weakref.WeakKeyDictionary()
 _by_print: OrderedDict[str, dict] = OrderedDict()
+_hits: Counter = Counter()
+_misses: Counter = Counter()
 
 
 def fingerprint(frame: pd.DataFrame) -> str:
@@ -51,7 +54,42 @@ def dataset_cache(pas: Any) -> dict:
     return store
 
 
+def remembered(pas: Any, key: tuple, make: Callable[[], Any], *, owners: tuple = ()) -> Any:
+    """The value stored under ``key`` for dataset ``pas``, made by ``make()`` the first time.
+
+    ``key[0]`` names the kind of table (it is what :func:`contact_cache_info` counts).
+    ``owners`` are the objects the value was computed from (a fitted model, a tier scale);
+    keys carry their ``id`` and a stored value is only reused while the very same objects
+    are given, so an id reused after garbage collection cannot return a stale table.
+    """
+    cache = dataset_cache(pas)
+    hit = cache.get(key)
+    if hit is not None and len(hit[0]) == len(owners) and all(a is b for a, b in zip(hit[0], owners)):
+        _hits[key[0]] += 1
+        return hit[1]
+    _misses[key[0]] += 1
+    value = make()
+    cache[key] = (owners, value)
+    return value
+
+
+def contact_cache_info() -> dict[str, dict[str, int]]:
+    """How often each kind of per-dataset contact table was reused (hits) or computed (misses).
+
+    Counts run from the start of the session or the last :func:`clear_contact_cache`.
+
+    Examples
+    --------
+    >>> clear_contact_cache()
+    >>> contact_cache_info()
+    {'hits': {}, 'misses': {}}
+    """
+    return {"hits": dict(_hits), "misses": dict(_misses)}
+
+
 def clear_contact_cache() -> None:
-    """Forget every fitted contact model and stored prediction."""
+    """Forget every fitted contact model and stored prediction (and the reuse counts)."""
     _by_object.clear()
     _by_print.clear()
+    _hits.clear()
+    _misses.clear()

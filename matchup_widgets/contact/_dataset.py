@@ -15,7 +15,7 @@ import pandas as pd
 from matchup_widgets.data import BASE_OUT_COLUMNS, BATTED
 
 from ._buckets import EV_EDGES, LA_EDGES, bucket_index, bucket_labels, group_codes
-from ._cache import dataset_cache
+from ._cache import dataset_cache, remembered
 from ._frames import batted_rows, check_role, frame_of, measured_mask, season_mask, seasons_of
 from ._model import ContactModel, contact_model_for
 from ._tiers import (
@@ -178,7 +178,8 @@ def tier_shares(
     pandas.DataFrame
         ``player_id``, ``batter_hand``, ``pitcher_hand``, ``n_batted``, ``n_measured``,
         ``n_tier_1`` .. ``n_tier_5`` and ``share_tier_1`` .. ``share_tier_5`` (over
-        measured balls).
+        measured balls). Computed once per dataset, role, seasons, model and tier scale,
+        then reused.
 
     Examples
     --------
@@ -194,6 +195,15 @@ def tier_shares(
     key_col = check_role(role)
     model = _model(pas, model)
     tiers = contact_tiers(pas, model=model) if tiers is None else tiers
+    seasons = None if seasons is None else (int(seasons[0]), int(seasons[1]))
+    key = ("tier_shares", role, id(model), id(tiers), seasons)
+    out = remembered(pas, key, lambda: _tier_shares(pas, key_col, tiers, model, seasons), owners=(model, tiers))
+    return out.copy(deep=False)  # a shallow copy: under copy-on-write the stored table stays as it was
+
+
+def _tier_shares(
+    pas: Any, key_col: str, tiers: ContactTiers, model: ContactModel, seasons: tuple[int, int] | None
+) -> pd.DataFrame:
     pred = _select(contact_predictions(pas, model=model), seasons)
     tier = ball_tiers(pred, tiers)
     keys = [key_col, "batter_hand", "pitcher_hand"]
@@ -226,7 +236,8 @@ def league_bucket_table(
     pandas.DataFrame
         One row per bucket in grid order: ``exit_velo_bin``, ``launch_angle_bin``, ``bucket``, ``n``,
         ``share`` and one column per ``BATTED`` code (mean modeled probability; the
-        league's batted-ball mix for empty buckets).
+        league's batted-ball mix for empty buckets). Computed once per dataset, model and
+        edges, then reused.
 
     Examples
     --------
@@ -238,7 +249,16 @@ def league_bucket_table(
     >>> int(table["n"].sum()), (table["GB_OUT"] > 0.5).tolist()
     (5000, [True, False, True, False])
     """
-    pred = contact_predictions(pas, model=_model(pas, model))
+    model = _model(pas, model)
+    key = ("league_buckets", id(model), tuple(map(float, ev_edges)), tuple(map(float, la_edges)))
+    table = remembered(pas, key, lambda: _league_bucket_table(pas, model, ev_edges, la_edges), owners=(model,))
+    return table.copy(deep=False)
+
+
+def _league_bucket_table(
+    pas: Any, model: ContactModel, ev_edges: Sequence[float], la_edges: Sequence[float]
+) -> pd.DataFrame:
+    pred = contact_predictions(pas, model=model)
     cells = bucket_index(pred["exit_velo"], pred["launch_angle"], ev_edges=ev_edges, la_edges=la_edges)
     table = bucket_labels(ev_edges=ev_edges, la_edges=la_edges)
     ok = cells >= 0

@@ -9,6 +9,7 @@ league's mean modeled outcomes in each category.
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 from typing import Any
 
 import numpy as np
@@ -17,8 +18,10 @@ import pandas as pd
 from matchup_widgets.data import BATTED
 
 from ._buckets import EV_EDGES, LA_EDGES, bucket_shares
-from ._dataset import contact_tiers, league_bucket_table, tier_shares
+from ._cache import remembered
+from ._dataset import _model, contact_tiers, league_bucket_table, tier_shares
 from ._model import ContactModel
+from ._tiers import ContactTiers
 
 
 def shrink_shares(counts: Any, league: Any, prior: float) -> np.ndarray:
@@ -111,13 +114,64 @@ def matchup_contact_mix(
     return pd.Series(mix, index=cats, name="share"), pd.Series(implied / implied.sum(), index=list(BATTED))
 
 
-def _player_counts(table: pd.DataFrame, player_id: str, hands: tuple[str, str], columns: list[str]) -> np.ndarray:
-    rows = table[
-        (table["player_id"].astype(str) == str(player_id))
-        & (table["batter_hand"] == hands[0])
-        & (table["pitcher_hand"] == hands[1])
-    ]
-    return rows[columns].to_numpy(dtype=float).sum(axis=0)
+@dataclass(frozen=True)
+class _SideCounts:
+    """Every player's balls per contact category in one role, indexed for row selection."""
+
+    rows: dict[tuple[str, str, str], int]  # (player_id, batter_hand, pitcher_hand) -> row
+    counts: np.ndarray  # (n_rows, n_categories)
+    league: dict[tuple[str, str], np.ndarray]  # split -> counts summed over all players
+
+    def player(self, player_id: str, hands: tuple[str, str]) -> np.ndarray:
+        row = self.rows.get((str(player_id), *hands))
+        return np.zeros(self.counts.shape[1]) if row is None else self.counts[row]
+
+    def split(self, hands: tuple[str, str]) -> np.ndarray:
+        return self.league.get(hands, np.zeros(self.counts.shape[1]))
+
+
+def _index_sides(keys: pd.DataFrame, counts: np.ndarray) -> _SideCounts:
+    """Sum ``counts`` rows by (player, split) key and by split; runs once per cached table."""
+    ids = keys["player_id"].astype(str).to_numpy(dtype=object)
+    bh = keys["batter_hand"].astype(str).to_numpy(dtype=object)
+    ph = keys["pitcher_hand"].astype(str).to_numpy(dtype=object)
+    rows: dict[tuple[str, str, str], int] = {}
+    codes = np.fromiter((rows.setdefault(k, len(rows)) for k in zip(ids, bh, ph)), dtype=np.int64, count=len(ids))
+    summed = np.zeros((len(rows), counts.shape[1]))
+    np.add.at(summed, codes, counts)
+    splits: dict[tuple[str, str], int] = {}
+    s_codes = np.fromiter((splits.setdefault(k, len(splits)) for k in zip(bh, ph)), dtype=np.int64, count=len(ids))
+    s_sums = np.zeros((len(splits), counts.shape[1]))
+    np.add.at(s_sums, s_codes, counts)
+    return _SideCounts(rows=rows, counts=summed, league={k: s_sums[i] for k, i in splits.items()})
+
+
+def _side_counts(
+    pas: Any, *, role: str, kind: str, seasons: tuple[int, int] | None, model: ContactModel,
+    tiers: ContactTiers | None, ev_edges: Any, la_edges: Any,
+) -> _SideCounts:
+    """All players' category counts in ``role``, computed once per dataset and settings."""
+    if kind == "tier":
+        key = ("side_counts", role, kind, seasons, id(model), id(tiers))
+        owners: tuple = (model, tiers)
+
+        def make() -> _SideCounts:
+            table = tier_shares(pas, role=role, tiers=tiers, model=model, seasons=seasons)
+            n_cols = [f"n_tier_{t}" for t in tiers.table.index]
+            return _index_sides(table, table[n_cols].to_numpy(dtype=float))
+    else:
+        edges = (tuple(map(float, ev_edges)), tuple(map(float, la_edges)))
+        key = ("side_counts", role, kind, seasons, edges)
+        owners = ()
+
+        def make() -> _SideCounts:
+            long = bucket_shares(pas, role=role, ev_edges=ev_edges, la_edges=la_edges, seasons=seasons)
+            n_cells = (len(edges[0]) + 1) * (len(edges[1]) + 1)
+            # the long table holds the whole grid, in grid order, for each player and split
+            counts = long["n"].to_numpy(dtype=float).reshape(-1, n_cells)
+            return _index_sides(long.iloc[::n_cells], counts)
+
+    return remembered(pas, key, make, owners=owners)
 
 
 def matchup_contact(
@@ -138,6 +192,9 @@ def matchup_contact(
 ) -> tuple[pd.DataFrame, pd.Series]:
     """Contact shares of batter, pitcher, league and their matchup mix, in one platoon split.
 
+    Every player's category counts are computed once per dataset, role, seasons, kind and
+    contact model (or bucket edges) and kept; another pair only selects two rows and blends.
+
     Parameters
     ----------
     pas : PlateAppearances or pandas.DataFrame
@@ -157,31 +214,18 @@ def matchup_contact(
         ``share`` -- bucket tables also carry ``exit_velo_bin`` and ``launch_angle_bin`` --
         and the outcome distribution over ``BATTED`` that the matchup mix implies.
     """
-    hands = (batter_hand, pitcher_hand)
+    hands = (str(batter_hand), str(pitcher_hand))
+    seasons = None if seasons is None else (int(seasons[0]), int(seasons[1]))
     if kind == "tier":
+        model = _model(pas, model)
         tiers = contact_tiers(pas, model=model)
-        n_cols = [f"n_tier_{t}" for t in tiers.table.index]
-        bat = tier_shares(pas, role="batter", tiers=tiers, model=model, seasons=seasons)
-        pit = tier_shares(pas, role="pitcher", tiers=tiers, model=model, seasons=seasons)
         cats = pd.Index(tiers.table.index, name="category")
         labels = tiers.table["label"].to_numpy()
         given = tiers.outcome_given_tier
         extra = None
     elif kind == "bucket":
+        tiers = None
         table = league_bucket_table(pas, model=model, ev_edges=ev_edges, la_edges=la_edges)
-        wide = {}
-        for role in ("batter", "pitcher"):
-            long = bucket_shares(pas, role=role, ev_edges=ev_edges, la_edges=la_edges, seasons=seasons)
-            wide[role] = long.pivot_table(
-                index=["player_id", "batter_hand", "pitcher_hand"], columns="bucket",
-                values="n", aggfunc="sum", sort=False,
-            ).reset_index()
-        bat, pit = wide["batter"], wide["pitcher"]
-        n_cols = list(table["bucket"])
-        for t in (bat, pit):
-            for c in n_cols:
-                if c not in t.columns:
-                    t[c] = 0
         cats = pd.Index(table["bucket"], name="category")
         labels = table["bucket"].to_numpy()
         given = table.set_index("bucket")[list(BATTED)]
@@ -189,11 +233,16 @@ def matchup_contact(
     else:
         msg = f"kind must be 'tier' or 'bucket', got {kind!r}."
         raise ValueError(msg)
-    given.index = cats
-    b_counts = _player_counts(bat, batter_id, hands, n_cols)
-    p_counts = _player_counts(pit, pitcher_id, hands, n_cols)
-    split = bat[(bat["batter_hand"] == hands[0]) & (bat["pitcher_hand"] == hands[1])]
-    league_counts = split[n_cols].to_numpy(dtype=float).sum(axis=0)
+    given = given.set_axis(cats)  # a relabelled copy: the cached table is left as it is
+    # every player's counts are computed once per dataset and settings; a new pair only selects rows
+    bat, pit = (
+        _side_counts(pas, role=role, kind=kind, seasons=seasons, model=model, tiers=tiers,
+                     ev_edges=ev_edges, la_edges=la_edges)
+        for role in ("batter", "pitcher")
+    )
+    b_counts = bat.player(batter_id, hands)
+    p_counts = pit.player(pitcher_id, hands)
+    league_counts = bat.split(hands)
     if league_counts.sum() == 0:
         msg = (
             f"no measured batted balls in the {batter_hand}/{pitcher_hand} split of this table; "
