@@ -75,6 +75,10 @@ def posterior_draws(
     return out
 
 
+#: The sides whose own intervals :func:`matchup_interval` reports beside the matchup's.
+_SIDE_ROWS: tuple[str, ...] = ("batter", "pitcher", "league")
+
+
 def matchup_interval(
     method: str,
     batter_counts: Any,
@@ -87,13 +91,15 @@ def matchup_interval(
     n_draws: int = 2000,
     seed: int | None = 0,
     point: Any = None,
+    league_counts: Any = None,
     **weights: Any,
-) -> dict[str, np.ndarray]:
-    """Credible interval of each blended probability, and its effective sample size.
+) -> dict[str, Any]:
+    """Credible interval of each blended probability and of each side, and the effective sample size.
 
     Draws each side from its Dirichlet posterior (:func:`posterior_draws`), blends every
     pair of draws with the same method and weights, and takes the central ``interval``
-    quantiles of each outcome.
+    quantiles of each outcome. The same side draws give the interval of each side's shrunk
+    distribution; no second set is drawn.
 
     Parameters
     ----------
@@ -110,16 +116,23 @@ def matchup_interval(
     n_draws, seed : keyword-only
         Number of draws and the seed (fixed by default so results repeat).
     point : array-like, optional, keyword-only
-        Point estimate; when given, each interval is widened to contain it.
+        Point estimate; when given, each matchup interval is widened to contain it.
+    league_counts : array-like, shape (..., 9), optional, keyword-only
+        League outcome counts of the split. When given, the league distribution gets its
+        own interval too: its Dirichlet posterior from these counts with no league prior
+        (only the half-count floor every interval uses), drawn after both sides from the
+        same generator, so the matchup draws stay those of :func:`matchup_draws`.
     **weights
         Blend weights, as in :func:`blend`.
 
     Returns
     -------
     dict
-        ``lo`` and ``hi`` (shape (..., 9)) and ``effective_pa`` (shape (...)): the number
-        of plate appearances of a single Dirichlet with the same total variance,
-        ``sum p(1 - p) / sum var - 1``.
+        ``lo`` and ``hi`` (shape (..., 9)) of the matchup; ``effective_pa`` (shape (...)):
+        the number of plate appearances of a single Dirichlet with the same total variance,
+        ``sum p(1 - p) / sum var - 1``; ``side_lo`` and ``side_hi``: dicts from side
+        (``batter``, ``pitcher`` and, with ``league_counts``, ``league``) to arrays of
+        shape (..., 9), the central intervals of each side's posterior.
 
     Examples
     --------
@@ -129,17 +142,27 @@ def matchup_interval(
     ...                        pitcher_prior_pa=0, pitcher_weight=0.5, n_draws=500)
     >>> bool(np.all(out["lo"] <= out["hi"])), 350 < float(out["effective_pa"]) < 450
     (True, True)
+    >>> sorted(out["side_lo"]), bool(np.all(out["side_lo"]["batter"] <= out["side_hi"]["batter"]))
+    (['batter', 'pitcher'], True)
     """
     if not 0.0 < float(interval) < 1.0:
         msg = f"interval must lie strictly between 0 and 1 (e.g. 0.8 for an 80% interval); got {interval}."
         raise ValueError(msg)
-    draws = matchup_draws(
+    draws, sides = matchup_draws(
         method, batter_counts, pitcher_counts, league,
         batter_prior_pa=batter_prior_pa, pitcher_prior_pa=pitcher_prior_pa,
-        n_draws=n_draws, seed=seed, **weights,
+        n_draws=n_draws, seed=seed, return_sides=True, **weights,
     )
+    if league_counts is not None:
+        # no prior beyond the floor: the league of the split is its own sample
+        sides["league"] = posterior_draws(league_counts, league, 0.0, n_draws=n_draws, seed=sides.pop("rng"))
+    sides.pop("rng", None)
+    names = [s for s in _SIDE_ROWS if s in sides]
     tail = (1.0 - float(interval)) / 2.0
-    lo, hi = np.quantile(draws, [tail, 1.0 - tail], axis=0)
+    # one quantile pass over the matchup and every side (axis 1 holds them)
+    stacked = np.stack([draws, *(sides[s] for s in names)], axis=1)
+    lo_all, hi_all = np.quantile(stacked, [tail, 1.0 - tail], axis=0)
+    lo, hi = lo_all[0], hi_all[0]
     if point is not None:
         p = as_probabilities(point, "point")
         lo, hi = np.minimum(lo, p), np.maximum(hi, p)
@@ -147,7 +170,13 @@ def matchup_interval(
     var = draws.var(axis=0)
     with np.errstate(invalid="ignore", divide="ignore"):
         ess = (mean * (1 - mean)).sum(axis=-1) / var.sum(axis=-1) - 1.0
-    return {"lo": lo, "hi": hi, "effective_pa": ess}
+    return {
+        "lo": lo,
+        "hi": hi,
+        "effective_pa": ess,
+        "side_lo": {s: lo_all[i + 1] for i, s in enumerate(names)},
+        "side_hi": {s: hi_all[i + 1] for i, s in enumerate(names)},
+    }
 
 
 def matchup_draws(
@@ -160,8 +189,9 @@ def matchup_draws(
     pitcher_prior_pa: Any,
     n_draws: int = 2000,
     seed: int | None = 0,
+    return_sides: bool = False,
     **weights: Any,
-) -> np.ndarray:
+) -> Any:
     """Posterior draws of a blended matchup distribution: the draws behind its intervals.
 
     Each side is drawn from its Dirichlet posterior (:func:`posterior_draws`; batter first,
@@ -169,9 +199,17 @@ def matchup_draws(
     blended with the same method and weights. :func:`matchup_interval` takes quantiles of
     these draws; run values carry them through linear weights or the base-out chain.
 
+    Parameters
+    ----------
+    return_sides : bool, keyword-only
+        Also return the side draws the blend used, so callers never draw them again.
+
     Returns
     -------
     numpy.ndarray, shape (n_draws, ..., 9)
+        The blended draws; with ``return_sides`` a pair ``(draws, sides)`` where ``sides``
+        maps ``batter`` and ``pitcher`` to their draws and ``rng`` to the generator, ready
+        for further draws that keep these unchanged.
 
     Examples
     --------
@@ -186,4 +224,7 @@ def matchup_draws(
     b = posterior_draws(batter_counts, league, batter_prior_pa, n_draws=n_draws, seed=rng)
     q = posterior_draws(pitcher_counts, league, pitcher_prior_pa, n_draws=n_draws, seed=rng)
     lg = as_probabilities(league, "league")
-    return np.asarray(blend(method, b, q, lg, **weights))
+    draws = np.asarray(blend(method, b, q, lg, **weights))
+    if return_sides:
+        return draws, {"batter": b, "pitcher": q, "rng": rng}
+    return draws

@@ -22,12 +22,14 @@ from ._summary import SUMMARY_COLUMNS, run_weights, summary_array
 #: Where the counts come from: observed outcomes, or balls in play replaced by their
 #: contact-expected outcome probabilities (the contact layer's model).
 BASES: tuple[str, ...] = ("observed", "contact")
+_CONTACT_KINDS: tuple[str, ...] = ("auto", "boosting", "grid")
 
 _CODES = pd.Index(list(OUTCOMES))
 _COUNT_COLS = pd.Index([*OUTCOMES, "pa"])
 _LO_HI = pd.Index(["lo", "hi"])
 _DIST_ROWS = pd.Index(["batter_raw", "batter", "pitcher_raw", "pitcher", "league", "matchup"])
 _COUNT_ROWS = pd.Index(["batter", "pitcher", "league"])
+_SIDE_INTERVAL_ROWS = pd.MultiIndex.from_product([_COUNT_ROWS, _LO_HI], names=["side", "bound"])
 _SUMMARY_ROWS = pd.Index(["matchup", "batter", "pitcher", "league"])
 _SUMMARY_COLS = pd.Index(list(SUMMARY_COLUMNS))
 
@@ -41,6 +43,7 @@ _DEFAULTS: dict[str, Any] = {
     "batter_exponent": 1.0,
     "pitcher_exponent": 1.0,
     "basis": "observed",
+    "contact_model": None,
     "seasons": None,
     "interval": 0.8,
     "n_draws": 2000,
@@ -63,6 +66,13 @@ class MatchupEstimate:
         Blended outcome probabilities by code (sum to 1).
     intervals : pandas.DataFrame
         ``lo`` and ``hi`` per code (central ``interval`` credible interval).
+    side_intervals : pandas.DataFrame
+        The same central interval for each side on its own: rows a (``side``, ``bound``)
+        index over ``batter, pitcher, league`` x ``lo, hi``, columns the codes. A player's
+        side is its shrunk distribution's Dirichlet posterior (counts + prior x league,
+        the draws behind the matchup interval); the league's is its own posterior from
+        the split's league counts, no prior beyond the half-count floor. Each contains its
+        row of ``distributions``.
     distributions : pandas.DataFrame
         Rows ``batter_raw, batter, pitcher_raw, pitcher, league, matchup`` (shrunk rows
         carry the side's name without suffix); columns the codes.
@@ -99,6 +109,7 @@ class MatchupEstimate:
     suggested_prior_pa: pd.DataFrame
     settings: dict[str, Any] = field(default_factory=dict)
     weights_source: str = ""
+    side_intervals: pd.DataFrame | None = None
 
     @property
     def split(self) -> str:
@@ -152,10 +163,20 @@ class MatchupEstimate:
             "summary": {row: {c: _finite(v) for c, v in vals.items()}
                         for row, vals in self.summary.to_dict("index").items()},
             "league": {c: float(v) for c, v in self.distributions.loc["league"].items()},
+            "side_intervals": self._side_intervals_dict(),
             "suggested_prior_pa": {side: {c: _finite(v) for c, v in self.suggested_prior_pa[side].items()}
                                    for side in self.suggested_prior_pa.columns},
             "weights_source": self.weights_source,
             "settings": dict(self.settings),
+        }
+
+    def _side_intervals_dict(self) -> dict[str, dict[str, list[float]]] | None:
+        if self.side_intervals is None:
+            return None
+        t = self.side_intervals
+        return {
+            side: {c: [float(lo), float(hi)] for c, lo, hi in zip(t.columns, t.loc[(side, "lo")], t.loc[(side, "hi")])}
+            for side in t.index.get_level_values("side").unique()
         }
 
 
@@ -191,6 +212,12 @@ class MatchupModel:
         Odds-ratio exponents (1, 1 is the generalised Log5).
     basis : {"observed", "contact"}
         Count observed outcomes, or replace balls in play by contact-expected outcomes.
+    contact_model : ContactModel, {"auto", "boosting", "grid"} or None
+        The contact model behind ``basis="contact"``. None uses the dataset's own
+        (:func:`matchup_widgets.contact.contact_model_for`, fitted once per dataset); a
+        kind uses the dataset's own model of that kind; a fitted ``ContactModel`` is used
+        as given (a dashboard passes the one its contact charts use, so both agree).
+        Contact-basis counts are kept per contact model.
     seasons : (int, int) or None
         Inclusive season range; all seasons when None.
     interval : float in (0, 1)
@@ -219,6 +246,7 @@ class MatchupModel:
         batter_exponent: float = 1.0,
         pitcher_exponent: float = 1.0,
         basis: str = "observed",
+        contact_model: Any = None,
         seasons: tuple[int, int] | None = None,
         interval: float = 0.8,
         n_draws: int = 2000,
@@ -233,6 +261,7 @@ class MatchupModel:
         self.batter_exponent = batter_exponent
         self.pitcher_exponent = pitcher_exponent
         self.basis = basis
+        self.contact_model = contact_model
         self.seasons = seasons
         self.interval = interval
         self.n_draws = n_draws
@@ -370,8 +399,12 @@ class MatchupModel:
             params["method"], b_counts, p_counts, league,
             batter_prior_pa=params["batter_prior_pa"], pitcher_prior_pa=params["pitcher_prior_pa"],
             interval=params["interval"], n_draws=params["n_draws"], seed=params["seed"], point=point,
-            **weights,
+            league_counts=lg_counts, **weights,
         )
+        # each side's interval is widened to contain its bar (the shrunk point), as the matchup's is
+        side_points = np.vstack([b_shrunk, p_shrunk, league])
+        side_lo = np.minimum(np.vstack([spread["side_lo"][s] for s in _COUNT_ROWS]), side_points)
+        side_hi = np.maximum(np.vstack([spread["side_hi"][s] for s in _COUNT_ROWS]), side_points)
         with np.errstate(invalid="ignore", divide="ignore"):
             b_raw = b_counts / b_counts.sum() if b_counts.sum() > 0 else np.full(9, np.nan)
             p_raw = p_counts / p_counts.sum() if p_counts.sum() > 0 else np.full(9, np.nan)
@@ -407,6 +440,11 @@ class MatchupModel:
             suggested_prior_pa=self.suggested_priors(),
             settings=_plain_settings(params),
             weights_source=run_w["source"],
+            side_intervals=pd.DataFrame(
+                np.stack([side_lo, side_hi], axis=1).reshape(-1, len(OUTCOMES)),
+                index=_SIDE_INTERVAL_ROWS,
+                columns=_CODES,
+            ),
         )
 
     def suggested_priors(self, *, min_pa: int = 30) -> pd.DataFrame:
@@ -422,7 +460,8 @@ class MatchupModel:
         """
         self._check_fitted()
         params = _check_settings(self.get_params())
-        key = ("priors", params["basis"], params["seasons"], min_pa)
+        contact = _contact_key(params["contact_model"]) if params["basis"] == "contact" else None
+        key = ("priors", params["basis"], contact, params["seasons"], min_pa)
         if key not in self.cache_:
             cols = {}
             for role, cube in zip(("batter", "pitcher"), self._cubes(params)):
@@ -440,10 +479,11 @@ class MatchupModel:
     def _cubes(self, params: dict[str, Any]) -> tuple[CountCube, CountCube]:
         if params["basis"] == "observed":
             return self.batter_counts_, self.pitcher_counts_
-        key = ("contact", None if _contact_by_season() else params["seasons"])
+        cm = params["contact_model"]
+        key = ("contact", _contact_key(cm), None if _contact_by_season() else params["seasons"])
         if key not in self.cache_:
             self.cache_[key] = tuple(
-                CountCube.from_table(_contact_counts(self.pas_, role=role, seasons=key[1]))
+                CountCube.from_table(_contact_counts(self.pas_, role=role, seasons=key[2], contact_model=cm))
                 for role in ("batter", "pitcher")
             )
         return self.cache_[key]
@@ -486,11 +526,24 @@ def _contact_by_season() -> bool:
     return "by_season" in inspect.signature(fn).parameters
 
 
-def _contact_counts(pas: Any, *, role: str, seasons: tuple[int, int] | None) -> pd.DataFrame:
+def _contact_key(contact_model: Any) -> Any:
+    """Cache key of a contact-model setting: a kind, the dataset default, or the fitted object."""
+    return "dataset default" if contact_model is None else contact_model
+
+
+def _contact_counts(pas: Any, *, role: str, seasons: tuple[int, int] | None, contact_model: Any = None) -> pd.DataFrame:
     fn = _contact_function()
+    from matchup_widgets import contact
+
+    if contact_model is None:
+        model = contact.contact_model_for(pas)  # the per-dataset default, fitted once
+    elif isinstance(contact_model, str):
+        model = contact.contact_model_for(pas, kind=contact_model)
+    else:
+        model = contact_model
     if _contact_by_season():
-        return fn(pas, role=role, by_season=True)
-    return fn(pas, role=role, seasons=seasons)
+        return fn(pas, role=role, by_season=True, model=model)
+    return fn(pas, role=role, seasons=seasons, model=model)
 
 
 # ---- settings checks ------------------------------------------------------------------------
@@ -534,6 +587,17 @@ def _check_settings(params: dict[str, Any]) -> dict[str, Any]:
     if out["basis"] not in BASES:
         msg = f"basis must be one of {list(BASES)}; got {out['basis']!r}."
         raise ValueError(msg)
+    cm = out["contact_model"]
+    if not (
+        cm is None
+        or (isinstance(cm, str) and cm in _CONTACT_KINDS)
+        or (hasattr(cm, "predict_proba") and hasattr(cm, "kind_"))
+    ):
+        msg = (
+            f"contact_model must be None (the dataset's own), one of {list(_CONTACT_KINDS)} or a fitted "
+            f"matchup_widgets.contact.ContactModel; got {cm!r}. Fit it first: ContactModel(kind=...).fit(pas)."
+        )
+        raise ValueError(msg)
     out["pitcher_weight"] = _unit(out["pitcher_weight"], "pitcher_weight")
     out["first_weight"] = _unit(out["first_weight"], "first_weight", optional=True)
     out["in_play_weight"] = _unit(out["in_play_weight"], "in_play_weight", optional=True)
@@ -572,6 +636,9 @@ def _blend_weights(params: dict[str, Any]) -> dict[str, Any]:
 
 def _plain_settings(params: dict[str, Any]) -> dict[str, Any]:
     out = dict(params)
+    cm = out["contact_model"]
+    if cm is not None and not isinstance(cm, str):  # a fitted model is named by its kind (JSON-ready)
+        out["contact_model"] = str(getattr(cm, "kind_", "fitted"))
     if out["seasons"] is not None:
         out["seasons"] = list(out["seasons"])
     return out

@@ -8,7 +8,7 @@ from numpy.testing import assert_allclose
 from scipy import stats
 
 from matchup_widgets.data import OUTCOMES
-from matchup_widgets.model import INTERVAL_FLOOR, blend, matchup_interval, posterior_draws
+from matchup_widgets.model import INTERVAL_FLOOR, blend, matchup_draws, matchup_interval, posterior_draws
 
 BATTER_TRUTH = np.array([0.22, 0.08, 0.01, 0.15, 0.045, 0.005, 0.03, 0.24, 0.22])
 PITCHER_TRUTH = np.array([0.26, 0.07, 0.01, 0.14, 0.04, 0.004, 0.026, 0.25, 0.2])
@@ -100,3 +100,44 @@ def test_interval_contains_point_and_is_repeatable():
     with pytest.raises(ValueError, match="interval must lie strictly between 0 and 1"):
         matchup_interval("linear", counts, counts, LEAGUE, batter_prior_pa=0, pitcher_prior_pa=0,
                          pitcher_weight=0.5, interval=80)
+
+
+def test_side_intervals_are_the_beta_quantiles_of_each_sides_posterior():
+    # Reference: each marginal of Dirichlet(alpha) is Beta(alpha_i, A - alpha_i), a standard
+    # result; quantiles from scipy.stats.beta.ppf. Batter and pitcher alphas are counts +
+    # prior x league (floored at INTERVAL_FLOOR); the league's are its counts + the floor only.
+    b_counts = np.array([40, 12, 2, 30, 9, 1, 6, 55, 45])
+    p_counts = np.array([70, 15, 3, 38, 11, 1, 7, 70, 65])
+    lg_counts = np.round(LEAGUE * 5000)
+    league = lg_counts / lg_counts.sum()
+    out = matchup_interval(
+        "linear", b_counts, p_counts, league, batter_prior_pa=50, pitcher_prior_pa=120,
+        pitcher_weight=0.5, n_draws=40_000, seed=3, league_counts=lg_counts,
+    )
+    alphas = {
+        "batter": b_counts + np.maximum(50 * league, INTERVAL_FLOOR),
+        "pitcher": p_counts + np.maximum(120 * league, INTERVAL_FLOOR),
+        "league": lg_counts + INTERVAL_FLOOR,
+    }
+    assert sorted(out["side_lo"]) == ["batter", "league", "pitcher"]
+    for side, alpha in alphas.items():
+        ref_lo = stats.beta.ppf(0.1, alpha, alpha.sum() - alpha)
+        ref_hi = stats.beta.ppf(0.9, alpha, alpha.sum() - alpha)
+        # Monte Carlo tolerance for 40,000 draws
+        assert_allclose(out["side_lo"][side], ref_lo, rtol=0.03, atol=2e-4, err_msg=side)
+        assert_allclose(out["side_hi"][side], ref_hi, rtol=0.03, atol=2e-4, err_msg=side)
+
+
+def test_side_draws_are_the_ones_behind_the_matchup_interval():
+    # One sampler: the matchup draws (and so its interval) do not change when the league
+    # interval is asked for, and the side draws returned are those the blend used.
+    counts = np.array([40, 12, 2, 30, 9, 1, 6, 55, 45])
+    kw = {"batter_prior_pa": 30, "pitcher_prior_pa": 60, "pitcher_weight": 0.4, "n_draws": 300, "seed": 5}
+    plain = matchup_interval("linear", counts, counts[::-1], LEAGUE, **kw)
+    with_league = matchup_interval("linear", counts, counts[::-1], LEAGUE, league_counts=counts * 50, **kw)
+    assert_allclose(plain["lo"], with_league["lo"], rtol=0)
+    assert_allclose(plain["side_hi"]["pitcher"], with_league["side_hi"]["pitcher"], rtol=0)
+    draws, sides = matchup_draws("linear", counts, counts[::-1], LEAGUE, return_sides=True, **kw)
+    assert_allclose(draws, matchup_draws("linear", counts, counts[::-1], LEAGUE, **kw), rtol=0)
+    assert_allclose(draws, blend("linear", sides["batter"], sides["pitcher"], LEAGUE, pitcher_weight=0.4), rtol=1e-12)
+    assert_allclose(plain["side_lo"]["batter"], np.quantile(sides["batter"], 0.1, axis=0), rtol=1e-12)

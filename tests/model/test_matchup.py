@@ -210,3 +210,26 @@ def test_a_split_never_seen_gives_wide_intervals_not_false_precision(fitted):
     assert unseen.effective_pa < 10
     # with no PAs and no prior the point estimate is the league of the split
     assert_allclose(unseen.probabilities.to_numpy(), unseen.distributions.loc["league"].to_numpy(), rtol=1e-12)
+
+
+def test_side_intervals_hold_each_bar_and_match_the_posterior(fitted, pas):
+    from scipy import stats
+
+    from matchup_widgets.model import INTERVAL_FLOOR
+
+    est = fitted.with_settings(n_draws=20_000).predict("bat03", "pit05")
+    t = est.side_intervals
+    assert list(t.index.get_level_values("side").unique()) == ["batter", "pitcher", "league"]
+    assert list(t.columns) == CODES
+    for side in ("batter", "pitcher", "league"):
+        point = est.distributions.loc[side, CODES].to_numpy()
+        assert np.all((t.loc[(side, "lo")].to_numpy() <= point) & (point <= t.loc[(side, "hi")].to_numpy()))
+    # Reference: the Dirichlet marginal is a beta distribution (standard result), here the
+    # league's own posterior Beta(n_i + 0.5, N - n_i + 8 * 0.5) from its split counts.
+    lg = est.counts.loc["league", CODES].to_numpy() + INTERVAL_FLOOR
+    assert_allclose(t.loc[("league", "hi")].to_numpy(), stats.beta.ppf(0.9, lg, lg.sum() - lg), rtol=0.02, atol=2e-4)
+    d = json.loads(json.dumps(est.to_dict()))
+    assert set(d["side_intervals"]) == {"batter", "pitcher", "league"}
+    assert d["side_intervals"]["pitcher"]["K"] == [t.loc[("pitcher", "lo"), "K"], t.loc[("pitcher", "hi"), "K"]]
+    # the matchup's own keys are unchanged
+    assert set(d["intervals"]) == set(CODES)
