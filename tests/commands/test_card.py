@@ -8,7 +8,6 @@ import struct
 from pathlib import Path
 
 import numpy as np
-import pandas as pd
 import pytest
 
 from matchup_widgets.cli import main
@@ -16,36 +15,15 @@ from matchup_widgets.data import OUTCOMES, load_pas
 from matchup_widgets.export import CARD_CAUTION, card_tables, matchup_card, write_matchup_card
 from matchup_widgets.model import MatchupModel
 
-_BASE = np.array([0.22, 0.08, 0.01, 0.15, 0.045, 0.005, 0.03, 0.22, 0.23])
-
-
-def _league(seed: int = 11, n_pa: int = 5000) -> pd.DataFrame:
-    """A small invented league (smoke data; no check values come from it)."""
-    rng = np.random.default_rng(seed)
-    b, p = rng.integers(0, 6, n_pa), rng.integers(0, 3, n_pa)
-    probs = _BASE * np.exp(rng.normal(0, 0.3, (6, 9)))[b] * np.exp(rng.normal(0, 0.3, (3, 9)))[p]
-    probs /= probs.sum(axis=1, keepdims=True)
-    outcome = np.minimum((rng.random(n_pa)[:, None] > probs.cumsum(axis=1)).sum(axis=1), 8)
-    game = np.arange(n_pa) // 50
-    return pd.DataFrame(
-        {
-            "game_id": [f"g{g:04d}" for g in game],
-            "game_date": pd.Timestamp("2031-04-01") + pd.to_timedelta(game // 3, unit="D"),
-            "batter_id": [f"b{i}" for i in b],
-            "pitcher_id": [f"p{i}" for i in p],
-            "batter_name": [["Orrin Vale", "Tem Hollis", "Gus Marrow", "Lio Penn", "Abe Sorrel", "Kip Dune"][i] for i in b],
-            "pitcher_name": [["Wade Fenner", "Cole Brask", "Rudy Omberlane"][i] for i in p],
-            "batter_hand": np.where(b % 2 == 0, "L", "R"),
-            "pitcher_hand": np.where(p == 1, "L", "R"),
-            "outcome": np.asarray(OUTCOMES)[outcome],
-        }
-    )
-
 
 @pytest.fixture(scope="module")
-def data_file(tmp_path_factory) -> Path:
+def data_file(tilted_league, tmp_path_factory) -> Path:
     path = tmp_path_factory.mktemp("card") / "pas.parquet"
-    _league().to_parquet(path)
+    tilted_league(
+        seed=11, n_pa=5000, n_batters=6, n_pitchers=3, batter_sd=0.3, games_per_day=3,
+        batter_names=["Orrin Vale", "Tem Hollis", "Gus Marrow", "Lio Penn", "Abe Sorrel", "Kip Dune"],
+        pitcher_names=["Wade Fenner", "Cole Brask", "Rudy Omberlane"], left_batter=lambda i: i % 2 == 0,
+    ).to_parquet(path)
     return path
 
 

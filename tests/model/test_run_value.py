@@ -3,7 +3,6 @@
 from __future__ import annotations
 
 import numpy as np
-import pandas as pd
 import pytest
 from numpy.testing import assert_allclose
 
@@ -13,38 +12,11 @@ from matchup_widgets.model._run_value import estimate_draws, run_value_interval
 from matchup_widgets.model._summary import run_weights
 from matchup_widgets.runs import run_expectancy
 
-_BASE = np.array([0.22, 0.08, 0.01, 0.15, 0.045, 0.005, 0.03, 0.22, 0.23])
-
-
-def _league(seed: int = 3, n_pa: int = 6000) -> pd.DataFrame:
-    """A small invented league: 8 batters, 4 pitchers, outcome shares tilted per player."""
-    rng = np.random.default_rng(seed)
-    b = rng.integers(0, 8, n_pa)
-    p = rng.integers(0, 4, n_pa)
-    tilt = np.exp(rng.normal(0, 0.25, (8, 9)))[b] * np.exp(rng.normal(0, 0.25, (4, 9)))[p]
-    probs = _BASE * tilt
-    probs /= probs.sum(axis=1, keepdims=True)
-    u = rng.random(n_pa)[:, None]
-    outcome = np.minimum((u > probs.cumsum(axis=1)).sum(axis=1), 8)
-    game = np.arange(n_pa) // 60
-    return pd.DataFrame(
-        {
-            "game_id": [f"g{g:04d}" for g in game],
-            "game_date": pd.Timestamp("2031-04-01") + pd.to_timedelta(game // 4, unit="D"),
-            "batter_id": [f"b{i}" for i in b],
-            "pitcher_id": [f"p{i}" for i in p],
-            "batter_name": [f"Batter Number{i}" for i in b],
-            "pitcher_name": [f"Pitcher Number{i}" for i in p],
-            "batter_hand": np.where(b % 3 == 0, "L", "R"),
-            "pitcher_hand": np.where(p % 2 == 0, "R", "L"),
-            "outcome": np.asarray(OUTCOMES)[outcome],
-        }
-    )
-
 
 @pytest.fixture(scope="module")
-def model() -> MatchupModel:
-    return MatchupModel(n_draws=4000).fit(load_pas(_league()))
+def model(tilted_league) -> MatchupModel:
+    frame = tilted_league(seed=3, n_pa=6000, n_batters=8, n_pitchers=4, batter_sd=0.25, pa_per_game=60)
+    return MatchupModel(n_draws=4000).fit(load_pas(frame))
 
 
 def test_draws_are_the_ones_behind_the_estimates_intervals(model):

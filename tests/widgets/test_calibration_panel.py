@@ -10,31 +10,7 @@ from matchup_widgets.data import OUTCOMES, load_pas
 from matchup_widgets.model import calibrate
 from matchup_widgets.widgets.calibration import CalibrationLab
 
-_BASE = np.array([0.22, 0.08, 0.01, 0.15, 0.045, 0.005, 0.03, 0.22, 0.23])
 _FAST = {"priors": (0, 50, 200), "n_boot": 20}
-
-
-def _league(seed: int = 5, n_pa: int = 8000) -> pd.DataFrame:
-    """A small invented league (10 batters, 5 pitchers) with per-player tilts; smoke data only."""
-    rng = np.random.default_rng(seed)
-    b, p = rng.integers(0, 10, n_pa), rng.integers(0, 5, n_pa)
-    probs = _BASE * np.exp(rng.normal(0, 0.3, (10, 9)))[b] * np.exp(rng.normal(0, 0.3, (5, 9)))[p]
-    probs /= probs.sum(axis=1, keepdims=True)
-    outcome = np.minimum((rng.random(n_pa)[:, None] > probs.cumsum(axis=1)).sum(axis=1), 8)
-    game = np.arange(n_pa) // 50
-    return pd.DataFrame(
-        {
-            "game_id": [f"g{g:04d}" for g in game],
-            "game_date": pd.Timestamp("2031-04-01") + pd.to_timedelta(game // 5, unit="D"),
-            "batter_id": [f"b{i}" for i in b],
-            "pitcher_id": [f"p{i}" for i in p],
-            "batter_name": [f"Batter Number{i}" for i in b],
-            "pitcher_name": [f"Pitcher Number{i}" for i in p],
-            "batter_hand": np.where(b % 3 == 0, "L", "R"),
-            "pitcher_hand": np.where(p % 2 == 0, "R", "L"),
-            "outcome": np.asarray(OUTCOMES)[outcome],
-        }
-    )
 
 
 class _Receiver:
@@ -48,8 +24,9 @@ class _Receiver:
 
 
 @pytest.fixture(scope="module")
-def pas():
-    return load_pas(_league())
+def pas(tilted_league):
+    frame = tilted_league(seed=5, n_pa=8000, n_batters=10, n_pitchers=5, batter_sd=0.3, games_per_day=5)
+    return load_pas(frame)
 
 
 @pytest.fixture(scope="module")

@@ -3,43 +3,22 @@
 from __future__ import annotations
 
 import numpy as np
-import pandas as pd
 import pytest
 
-from matchup_widgets.data import OUTCOMES, load_pas
+from matchup_widgets.data import load_pas
 from matchup_widgets.model import MatchupModel
 from matchup_widgets.runs import lineup_runs, simulate_games
 from matchup_widgets.widgets.lineup import LineupPanel, wins_per_season
 
-_BASE = np.array([0.22, 0.08, 0.01, 0.15, 0.045, 0.005, 0.03, 0.22, 0.23])
-
-
-def _league(seed: int = 9, n_pa: int = 9000) -> pd.DataFrame:
-    """A small invented league (12 batters, 3 pitchers); smoke data, never a check value."""
-    rng = np.random.default_rng(seed)
-    b, p = rng.integers(0, 12, n_pa), rng.integers(0, 3, n_pa)
-    probs = _BASE * np.exp(rng.normal(0, 0.35, (12, 9)))[b] * np.exp(rng.normal(0, 0.2, (3, 9)))[p]
-    probs /= probs.sum(axis=1, keepdims=True)
-    outcome = np.minimum((rng.random(n_pa)[:, None] > probs.cumsum(axis=1)).sum(axis=1), 8)
-    game = np.arange(n_pa) // 60
-    return pd.DataFrame(
-        {
-            "game_id": [f"g{g:04d}" for g in game],
-            "game_date": pd.Timestamp("2031-04-01") + pd.to_timedelta(game // 3, unit="D"),
-            "batter_id": [f"b{i:02d}" for i in b],
-            "pitcher_id": [f"p{i}" for i in p],
-            "batter_name": [f"Batter Number{i}" for i in b],
-            "pitcher_name": [f"Pitcher Number{i}" for i in p],
-            "batter_hand": np.where(b % 3 == 0, "L", "R"),
-            "pitcher_hand": np.where(p == 1, "L", "R"),
-            "outcome": np.asarray(OUTCOMES)[outcome],
-        }
-    )
-
 
 @pytest.fixture(scope="module")
-def pas():
-    return load_pas(_league())
+def pas(tilted_league):
+    frame = tilted_league(
+        seed=9, n_pa=9000, n_batters=12, n_pitchers=3, batter_sd=0.35, pitcher_sd=0.2,
+        pa_per_game=60, games_per_day=3, batter_id="b{i:02d}",
+        left_pitcher=lambda i: i == 1,
+    )
+    return load_pas(frame)
 
 
 @pytest.fixture(scope="module")

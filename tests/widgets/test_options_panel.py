@@ -2,43 +2,17 @@
 
 from __future__ import annotations
 
-import numpy as np
 import pandas as pd
 import pytest
 
-from matchup_widgets.data import OUTCOMES, load_pas
+from matchup_widgets.data import load_pas
 from matchup_widgets.model import MatchupModel, run_value_interval
 from matchup_widgets.widgets.options import OptionRanking
 
-_BASE = np.array([0.22, 0.08, 0.01, 0.15, 0.045, 0.005, 0.03, 0.22, 0.23])
-
-
-def _league(seed: int = 7, n_pa: int = 6000) -> pd.DataFrame:
-    """A small invented league (8 batters, 4 pitchers); smoke data, never a check value."""
-    rng = np.random.default_rng(seed)
-    b, p = rng.integers(0, 8, n_pa), rng.integers(0, 4, n_pa)
-    probs = _BASE * np.exp(rng.normal(0, 0.35, (8, 9)))[b] * np.exp(rng.normal(0, 0.35, (4, 9)))[p]
-    probs /= probs.sum(axis=1, keepdims=True)
-    outcome = np.minimum((rng.random(n_pa)[:, None] > probs.cumsum(axis=1)).sum(axis=1), 8)
-    game = np.arange(n_pa) // 50
-    return pd.DataFrame(
-        {
-            "game_id": [f"g{g:04d}" for g in game],
-            "game_date": pd.Timestamp("2031-04-01") + pd.to_timedelta(game // 4, unit="D"),
-            "batter_id": [f"b{i}" for i in b],
-            "pitcher_id": [f"p{i}" for i in p],
-            "batter_name": [f"Batter Number{i}" for i in b],
-            "pitcher_name": [f"Pitcher Number{i}" for i in p],
-            "batter_hand": np.where(b % 3 == 0, "L", "R"),
-            "pitcher_hand": np.where(p % 2 == 0, "R", "L"),
-            "outcome": np.asarray(OUTCOMES)[outcome],
-        }
-    )
-
 
 @pytest.fixture(scope="module")
-def pas():
-    return load_pas(_league())
+def pas(tilted_league):
+    return load_pas(tilted_league(seed=7, n_pa=6000, n_batters=8, n_pitchers=4, batter_sd=0.35))
 
 
 @pytest.fixture(scope="module")
