@@ -66,7 +66,9 @@ class MatchupExplorer:
     batter, pitcher : str, optional
         Starting players (id or name); by default those with the most plate appearances.
     contact_kind : {"grid", "boosting", "auto"}
-        Contact model behind the tier shares (``grid`` fits in seconds).
+        Contact model of the session (``grid`` fits in seconds), used by both the tier
+        chart and the contact basis; a ``model`` whose ``contact_model`` is already set
+        keeps its own, and the tier chart then uses that one.
 
     Attributes
     ----------
@@ -102,6 +104,16 @@ class MatchupExplorer:
         self._last_key: Any = None
         self._contact_basis_used = False
         self.has_contact = {"exit_velo", "launch_angle"} <= set(pas.table.columns)
+        # one contact model per dataset in a session: the contact basis and the tier chart share it
+        self.contact_model: Any = None
+        if self.has_contact:
+            from matchup_widgets import contact
+
+            chosen = self.model.contact_model
+            if chosen is None or isinstance(chosen, str):
+                chosen = contact.contact_model_for(pas, kind=chosen or contact_kind)
+                self.model = self.model.with_settings(contact_model=chosen)
+            self.contact_model = chosen
 
         start = self.model.get_params()
         seasons = list(self.model.seasons_)
@@ -412,7 +424,7 @@ class MatchupExplorer:
         )
         self._draw("heatmap", heat)
 
-        cmodel = contact.contact_model_for(self.pas, kind=self.contact_kind)
+        cmodel = self.contact_model  # the model behind the contact basis too
         blend = {
             "pitcher_weight": settings["pitcher_weight"],
             "batter_prior_pa": settings["batter_prior_pa"],
@@ -427,7 +439,7 @@ class MatchupExplorer:
                 )[0]
             ),
         )
-        given = self._cached(("given", self.contact_kind), lambda: contact.contact_tiers(self.pas, model=cmodel).outcome_given_tier)
+        given = self._cached(("given", id(cmodel)), lambda: contact.contact_tiers(self.pas, model=cmodel).outcome_given_tier)
         mix, _ = contact.matchup_contact_mix(
             by_side["batter"]["n"], by_side["pitcher"]["n"], by_side["league"]["share"],
             outcome_given=given, **blend,
