@@ -16,14 +16,13 @@ from typing import Any
 import altair as alt
 import pandas as pd
 
+from matchup_widgets.charts._theme import CAUTION
+
 #: File formats a card can be written in, chosen by the file's suffix.
 CARD_FORMATS: tuple[str, ...] = ("html", "png", "svg")
 
-#: Printed at the foot of every card.
-CARD_CAUTION = (
-    "Estimates from samples of plate appearances, shown with their intervals; "
-    "not certainties, and not betting advice."
-)
+#: Printed at the foot of every card: the project's one caution text.
+CARD_CAUTION = CAUTION
 
 
 def card_format(path: str | Path) -> str:

@@ -49,6 +49,12 @@ RUNS_FORMAT = ".3f"
 #: Font for charts; a generic family so nothing is fetched from the internet.
 FONT = "sans-serif"
 
+#: The one caution shown at the foot of every panel and card: what the numbers are and are not.
+CAUTION = (
+    "Estimates from samples of plate appearances, shown with their intervals; "
+    "not certainties, and not betting advice."
+)
+
 
 def side_label(side: str) -> str:
     """Return the words on screen for a side key.

@@ -23,7 +23,7 @@ from matchup_widgets.charts._theme import INK, MUTED
 
 from ._common import Coalescer, LiveChart, StatusLine, guarded, log, section
 from ._picker import PlayerPicker
-from ._tables import headline_html, heatmap_table, outcome_table, run_table, tier_table
+from ._tables import caution_html, headline_html, heatmap_table, outcome_table, run_table, tier_table
 
 #: Environment variable naming the plate-appearance file (set by ``matchup-widgets dashboard``).
 DATA_ENV = "MATCHUP_WIDGETS_DATA"
@@ -134,7 +134,8 @@ class MatchupExplorer:
                 description="Seasons",
                 continuous_update=False,
                 disabled=self.seasons_all[0] == self.seasons_all[1],
-                layout=W.Layout(width="300px"),
+                readout=False,  # the slider's own readout box clips "2024 – 2026"; ours sits beside it
+                layout=W.Layout(width="250px"),
                 style=_STYLE,
             ),
             "method": W.Dropdown(
@@ -174,6 +175,9 @@ class MatchupExplorer:
             if isinstance(widget, (W.FloatSlider, W.IntSlider, W.Dropdown)):
                 widget.layout.width = _CONTROL_WIDTH
         self.controls = c
+        self.seasons_readout = W.HTML(value=_season_words(c["seasons"].value), layout=W.Layout(width="86px"))
+        self.seasons_readout.add_class("mw-seasons-readout")
+        c["seasons"].observe(self._on_seasons_readout, names="value")
         if batter is not None:
             self.batter_picker.select(batter)
         if pitcher is not None:
@@ -243,12 +247,13 @@ class MatchupExplorer:
             f'<div style="color:{INK};font-size:20px;font-weight:700">Matchup explorer</div>'
             f'<div style="color:{MUTED};font-size:12px">{html.escape(self._data_words())}</div>'
         )
+        self.caution = W.HTML(caution_html())
         left = W.VBox(
             [
                 section("Who is batting", self.batter_picker.widget, note="Type part of a name; ids tell namesakes apart."),
                 section("Who is pitching", self.pitcher_picker.widget),
                 section("Platoon", c["platoon"]),
-                section("Model", c["seasons"], c["method"], c["pitcher_weight"], c["batter_prior"], c["pitcher_prior"], c["basis"], c["apply_fitted"]),
+                section("Model", W.HBox([c["seasons"], self.seasons_readout]), c["method"], c["pitcher_weight"], c["batter_prior"], c["pitcher_prior"], c["basis"], c["apply_fitted"]),
                 section("Run context", c["state"], note="Every hitter for the rest of the inning is this matchup."),
             ],
             layout=W.Layout(width="356px", min_width="356px", padding="0 16px 0 0", overflow="hidden"),
@@ -261,7 +266,7 @@ class MatchupExplorer:
             right_parts.append(self.contact_note)
         right_parts.append(self.charts["runs"])
         right = W.VBox(right_parts, layout=W.Layout(width="800px"))
-        box = W.VBox([title, W.HBox([left, right])], layout=W.Layout(padding="8px"))
+        box = W.VBox([title, self.caution, W.HBox([left, right])], layout=W.Layout(padding="8px"))
         box.add_class("mw-explorer")
         return box
 
@@ -351,6 +356,9 @@ class MatchupExplorer:
             )
 
     # ---- callbacks -----------------------------------------------------------------------
+    def _on_seasons_readout(self, change: Any) -> None:
+        self.seasons_readout.value = _season_words(change["new"])
+
     def _on_apply_fitted(self, _button: Any = None) -> None:
         if self.calibration is None:
             from matchup_widgets.model import calibrate
@@ -445,6 +453,13 @@ class MatchupExplorer:
             outcome_given=given, **blend,
         )
         self._draw("tiers", tier_table(sides, mix))
+
+
+def _season_words(seasons: Any) -> str:
+    """The season range as shown beside its slider, e.g. ``2024 – 2026`` (one year once)."""
+    first, last = (int(s) for s in seasons)
+    text = f"{first}" if first == last else f"{first} – {last}"
+    return f'<div style="color:{INK};font-size:13px;line-height:28px;white-space:nowrap">{text}</div>'
 
 
 def _tier_sides(sides: pd.DataFrame) -> tuple[pd.DataFrame, dict[str, pd.DataFrame]]:

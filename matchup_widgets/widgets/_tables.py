@@ -9,7 +9,7 @@ from typing import Any
 import numpy as np
 import pandas as pd
 
-from matchup_widgets.charts._theme import INK, MUTED, SIDE_COLORS, WARNING, side_label
+from matchup_widgets.charts._theme import CAUTION, INK, MUTED, SIDE_COLORS, WARNING, side_label
 from matchup_widgets.data import OUTCOMES
 
 #: A side with fewer plate appearances than this in the split gets a plain sample-size note.
@@ -20,16 +20,36 @@ _SIDES = ("batter", "pitcher", "league", "matchup")
 _HEAD_ORDER = ("matchup", "batter", "pitcher", "league")
 
 
+def caution_html() -> str:
+    """The project's caution (``charts._theme.CAUTION``) as a small plain line for a panel's foot.
+
+    Examples
+    --------
+    >>> "not betting advice" in caution_html()
+    True
+    """
+    return (
+        f'<div class="mw-caution" style="color:{MUTED};font-size:11px;margin-top:6px">'
+        f"{html.escape(CAUTION)}</div>"
+    )
+
+
 def outcome_table(estimate: Any) -> pd.DataFrame:
     """Long table ``outcome, side, probability, low, high`` of an estimate.
 
-    Batter and pitcher rows are the shrunk distributions the blend used; only the matchup
-    carries an interval.
+    Batter and pitcher rows are the shrunk distributions the blend used. Every side carries
+    its central interval: batter, pitcher and league from ``estimate.side_intervals``, the
+    matchup from ``estimate.intervals``.
     """
     codes = list(OUTCOMES)
     probs = estimate.distributions.loc[list(_SIDES), codes].to_numpy(dtype=float)
     low = np.full(probs.shape, np.nan)
     high = np.full(probs.shape, np.nan)
+    sides = getattr(estimate, "side_intervals", None)
+    if sides is not None:
+        # rows (side, bound) in the order batter, pitcher, league x lo, hi
+        both = sides[codes].to_numpy(dtype=float).reshape(-1, 2, len(codes))
+        low[:-1], high[:-1] = both[:, 0], both[:, 1]
     low[-1] = estimate.intervals.loc[codes, "lo"].to_numpy(dtype=float)
     high[-1] = estimate.intervals.loc[codes, "hi"].to_numpy(dtype=float)
     return pd.DataFrame(

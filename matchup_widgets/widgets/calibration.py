@@ -22,6 +22,7 @@ from matchup_widgets.charts._calibration import pending_chart
 from matchup_widgets.export import csv_links_html, write_tables
 
 from ._common import StatusLine, guarded, label_style, live_chart, section, set_chart
+from ._tables import caution_html
 
 #: Words on screen for the calibration baselines.
 BASELINE_LABELS: dict[str, str] = {
@@ -144,6 +145,7 @@ class CalibrationLab:
         self.apply_button.on_click(guarded(self.status, "Could not apply the settings")(self._on_apply))
         self.surface_y.observe(guarded(self.status, "Could not redraw")(self._redraw_surface), names="value")
 
+        self.caution = W.HTML(caution_html())
         self.widget = W.VBox(
             [
                 section(
@@ -165,6 +167,7 @@ class CalibrationLab:
                         note="The weighted mix is fitted in closed form; the odds-ratio blend has no weight, "
                         "only its best prior sizes. Compare their Brier scores above."),
                 W.HBox([self.csv_button, self.downloads]),
+                self.caution,
             ]
         )
         self.widget.add_class("mw-calibration-lab")

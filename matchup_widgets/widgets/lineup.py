@@ -20,6 +20,7 @@ from matchup_widgets.export import csv_links_html, write_tables
 
 from ._common import Coalescer, StatusLine, guarded, live_chart, section, set_chart
 from ._picker import PlayerPicker, player_options
+from ._tables import caution_html
 
 #: Rule of thumb: about ten runs of run differential make one win (common practice).
 RUNS_PER_WIN: float = 10.0
@@ -106,6 +107,7 @@ class LineupPanel:
             w.observe(self._coalescer.request, names="value")
         self.csv_button.on_click(guarded(self.status, "Could not prepare the CSV files")(self._on_csv))
 
+        self.caution = W.HTML(caution_html())
         self.widget = W.VBox(
             [
                 W.HBox(
@@ -123,6 +125,7 @@ class LineupPanel:
                     ]
                 ),
                 W.HBox([self.csv_button, self.downloads]),
+                self.caution,
             ]
         )
         self.widget.add_class("mw-lineup")

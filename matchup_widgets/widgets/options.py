@@ -18,6 +18,7 @@ from matchup_widgets.export import csv_links_html, write_tables
 
 from ._common import Coalescer, StatusLine, guarded, label_style, live_chart, section, set_chart
 from ._picker import PlayerPicker, player_options
+from ._tables import caution_html
 
 #: The two ways to compare: (words on screen, role of the fixed player).
 MODES: tuple[tuple[str, str], ...] = (
@@ -105,6 +106,7 @@ class OptionRanking:
             widget.observe(self._coalescer.request, names="value")
         self.csv_button.on_click(guarded(self.status, "Could not prepare the CSV files")(self._on_csv))
 
+        self.caution = W.HTML(caution_html())
         self.widget = W.VBox(
             [
                 section("Who is fixed", self.mode, self.fixed_box),
@@ -116,6 +118,7 @@ class OptionRanking:
                 self.chart,
                 self.table,
                 W.HBox([self.csv_button, self.downloads]),
+                self.caution,
             ],
             layout=W.Layout(width="760px"),
         )

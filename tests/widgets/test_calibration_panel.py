@@ -157,3 +157,10 @@ def test_errors_show_in_the_panel_and_apply_needs_a_fit(pas):
     assert not lab.fit_button.disabled
     with pytest.raises(RuntimeError, match="no fit yet"):
         lab.settings()
+
+
+def test_caution_line_is_at_the_foot(fitted):
+    from matchup_widgets.charts._theme import CAUTION
+
+    lab, _ = fitted
+    assert lab.widget.children[-1] is lab.caution and CAUTION in lab.caution.value

@@ -245,3 +245,51 @@ def test_fit_and_use_runs_calibration_once(explorer, monkeypatch):
     assert ex.controls["apply_fitted"].description == "Use fitted settings"
     assert ex.controls["pitcher_weight"].value == pytest.approx(0.52)
     assert ex.estimate.settings["pitcher_prior_pa"] == 400.0
+
+
+def _tree_html(widget):
+    """Every HTML value in a widget tree (depth first)."""
+    out = [widget.value] if hasattr(widget, "value") and isinstance(widget.value, str) else []
+    for child in getattr(widget, "children", ()):
+        out += _tree_html(child)
+    return out
+
+
+def test_every_side_carries_its_whiskers_from_the_estimate(explorer):
+    ex = explorer
+    ex.controls["pitcher_weight"].value = 0.35
+    est = ex.estimate
+    rows = _rows(ex, "outcomes")
+    assert {r["side"] for r in rows} == {"batter", "pitcher", "league", "matchup"}
+    # every drawn row has both ends, so the chart's whisker filter keeps all four sides
+    assert all(r["low"] is not None and r["high"] is not None for r in rows)
+    assert all(np.isfinite([r["low"], r["high"]]).all() for r in rows)
+    for side in ("batter", "pitcher", "league"):
+        got = {r["outcome"]: (r["low"], r["high"]) for r in rows if r["side"] == side}
+        np.testing.assert_allclose([got[c][0] for c in OUTCOMES], est.side_intervals.loc[(side, "lo")].to_numpy(), rtol=1e-12)
+        np.testing.assert_allclose([got[c][1] for c in OUTCOMES], est.side_intervals.loc[(side, "hi")].to_numpy(), rtol=1e-12)
+    _assert_matches_model(ex)  # the matchup's whiskers are the estimate's intervals
+    spec = ex.live["outcomes"].widget.chart.to_dict()
+    whisker = spec["layer"][1]
+    assert whisker["mark"]["type"] == "rule"
+    assert whisker["encoding"]["y"]["field"] == "low" and whisker["encoding"]["y2"]["field"] == "high"
+
+
+def test_caution_line_is_on_screen(explorer):
+    from matchup_widgets.charts._theme import CAUTION
+
+    assert any(CAUTION in v for v in _tree_html(explorer.widget))
+    assert "not betting advice" in CAUTION
+
+
+def test_season_readout_shows_the_whole_range(explorer):
+    ex = explorer
+    first, last = ex.seasons_all
+    assert not ex.controls["seasons"].readout  # the slider's own box clipped the range
+    lo, hi = ex.controls["seasons"].value
+    assert (f"{lo} – {hi}" if lo != hi else f">{lo}<") in ex.seasons_readout.value
+    ex.controls["seasons"].value = (last, last)
+    assert f">{last}<" in ex.seasons_readout.value
+    ex.controls["seasons"].value = (first, last)
+    assert f"{first} – {last}" in ex.seasons_readout.value
+    assert ex.status.last_error is None, ex.status.widget.value

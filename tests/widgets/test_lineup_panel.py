@@ -103,3 +103,9 @@ def test_slot_change_settings_and_csv(pas, model, panel, tmp_path):
     assert {p.name for p in paths} == {"lineup_slots.csv", "lineup_runs_per_inning.csv", "lineup_summary.csv"}
     with pytest.raises(ValueError, match="nine batters"):
         LineupPanel(pas, model=model, order=ORDER[:8])
+
+
+def test_caution_line_is_at_the_foot(panel):
+    from matchup_widgets.charts._theme import CAUTION
+
+    assert panel.widget.children[-1] is panel.caution and CAUTION in panel.caution.value

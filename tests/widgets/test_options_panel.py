@@ -79,3 +79,10 @@ def test_mode_switch_and_empty_choice(pas, model):
     assert panel.ranking.empty and "Choose" in panel.table.value
     with pytest.raises(ValueError, match="mode must be"):
         OptionRanking(pas, model=model, mode="catcher")
+
+
+def test_caution_line_is_at_the_foot(pas, model):
+    from matchup_widgets.charts._theme import CAUTION
+
+    panel = OptionRanking(pas, model=model, fixed="p2", candidates=["b0", "b3"])
+    assert panel.widget.children[-1] is panel.caution and CAUTION in panel.caution.value
