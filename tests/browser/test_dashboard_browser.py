@@ -5,80 +5,18 @@ from __future__ import annotations
 
 import os
 import shutil
-import signal
-import socket
-import subprocess
-import sys
 import time
-import urllib.request
 from pathlib import Path
 
 import pytest
 
 REPO = Path(__file__).resolve().parents[2]
-CHROMIUM = Path("/usr/bin/chromium")
-DEMO = REPO / "demo_data" / "plate_appearances.parquet"
-CHROMIUM_ARGS = [
-    "--headless",
-    "--no-sandbox",
-    "--disable-gpu",
-    "--disable-background-networking",
-    "--disable-component-update",
-    "--no-first-run",
-    "--disable-sync",
-]
-
-pytestmark = pytest.mark.skipif(
-    not CHROMIUM.exists(),
-    reason="Debian's chromium is not installed at /usr/bin/chromium (.ci/run installs it: apt-get install chromium)",
-)
-
-
-def _free_port() -> int:
-    with socket.socket() as s:
-        s.bind(("127.0.0.1", 0))
-        return s.getsockname()[1]
-
-
-def _wait_http(url: str, proc: subprocess.Popen, log: Path, timeout: float = 60.0) -> None:
-    deadline = time.monotonic() + timeout
-    while time.monotonic() < deadline:
-        if proc.poll() is not None:
-            pytest.fail(f"voila exited with {proc.returncode}:\n{log.read_text()[-3000:]}")
-        try:
-            with urllib.request.urlopen(url, timeout=5) as resp:  # noqa: S310 - local server
-                if resp.status == 200:
-                    return
-        except OSError:
-            time.sleep(0.5)
-    pytest.fail(f"voila did not answer on {url} within {timeout:.0f} s:\n{log.read_text()[-3000:]}")
 
 
 @pytest.fixture()
-def dashboard(tmp_path: Path):
-    """Start `matchup-widgets dashboard` on a free port; yield its URL; stop it."""
-    port = _free_port()
-    log = tmp_path / "voila.log"
-    env = dict(os.environ, HOME=str(tmp_path), JUPYTER_RUNTIME_DIR=str(tmp_path / "runtime"))
-    cmd = [sys.executable, "-m", "matchup_widgets", "dashboard", "--port", str(port), "--no-preheat"]
-    if DEMO.exists():
-        cmd += ["--data", str(DEMO)]
-    with log.open("wb") as out:
-        proc = subprocess.Popen(cmd, cwd=REPO, env=env, stdout=out, stderr=subprocess.STDOUT, start_new_session=True)
-    url = f"http://127.0.0.1:{port}/"
-    try:
-        _wait_http(url, proc, log)
-        yield url
-    finally:
-        try:
-            os.killpg(proc.pid, signal.SIGTERM)
-            proc.wait(timeout=15)
-        except (ProcessLookupError, subprocess.TimeoutExpired):
-            try:
-                os.killpg(proc.pid, signal.SIGKILL)
-            except ProcessLookupError:
-                pass
-            proc.wait(timeout=5)
+def dashboard(serve_notebook) -> str:
+    """The explorer served by `matchup-widgets dashboard`; its URL."""
+    return serve_notebook()
 
 
 def _chart_markup(page, css: str) -> str:
@@ -110,9 +48,7 @@ def _settled(page, css: str, quiet_ms: int = 1500, timeout_s: float = 30.0) -> s
     return last
 
 
-def test_dashboard_updates_chart_in_browser(dashboard: str, artifacts_dir: Path):
-    from playwright.sync_api import sync_playwright
-
+def test_dashboard_updates_chart_in_browser(dashboard: str, chromium_browser, artifacts_dir: Path):
     outside: list[str] = []
 
     def local_only(route):
@@ -125,50 +61,45 @@ def test_dashboard_updates_chart_in_browser(dashboard: str, artifacts_dir: Path)
             route.abort()
 
     bars = ".mw-outcome-bars"
-    with sync_playwright() as pw:
-        browser = pw.chromium.launch(executable_path=str(CHROMIUM), args=CHROMIUM_ARGS)
-        try:
-            page = browser.new_page(viewport={"width": 1240, "height": 2000})
-            page.route("**/*", local_only)
-            page.goto(dashboard, wait_until="domcontentloaded", timeout=60_000)
-            page.wait_for_selector(f"{bars} svg.marks", timeout=60_000)
-            for css in (".mw-contact-heatmap", ".mw-tier-shares", ".mw-run-context"):
-                page.wait_for_selector(f"{css} svg.marks", timeout=30_000)
-            assert page.locator(".jp-InputArea-editor").count() == 0  # no code shown
-            before = _settled(page, bars)
+    page = chromium_browser.new_page(viewport={"width": 1240, "height": 2000})
+    page.route("**/*", local_only)
+    page.goto(dashboard, wait_until="domcontentloaded", timeout=60_000)
+    page.wait_for_selector(f"{bars} svg.marks", timeout=60_000)
+    for css in (".mw-contact-heatmap", ".mw-tier-shares", ".mw-run-context"):
+        page.wait_for_selector(f"{css} svg.marks", timeout=30_000)
+    assert page.locator(".jp-InputArea-editor").count() == 0  # no code shown
+    before = _settled(page, bars)
 
-            # pick a matchup: choose another batter, then search a pitcher by part of a name
-            pick = page.locator(".mw-batter-pick select")
-            assert pick.locator("option").count() >= 2
-            pick.select_option(index=1)
-            _wait_changed(page, bars, before)
-            first_pitcher = page.locator(".mw-pitcher-pick select option").nth(1).text_content()
-            name = first_pitcher.split(" (")[0]
-            page.locator(".mw-pitcher-search input").fill(name[:5])
-            page.wait_for_function(
-                "n => document.querySelector('.mw-pitcher-pick select').selectedOptions[0].text.startsWith(n)",
-                arg=name[:5], timeout=20_000,
-            )
-            before = _settled(page, bars)
-            headline = page.locator(".mw-headline").inner_text()
-            assert name[:5] in headline
-            readout = page.locator(".mw-pitcher-weight .widget-readout").inner_text()
+    # pick a matchup: choose another batter, then search a pitcher by part of a name
+    pick = page.locator(".mw-batter-pick select")
+    assert pick.locator("option").count() >= 2
+    pick.select_option(index=1)
+    _wait_changed(page, bars, before)
+    first_pitcher = page.locator(".mw-pitcher-pick select option").nth(1).text_content()
+    name = first_pitcher.split(" (")[0]
+    page.locator(".mw-pitcher-search input").fill(name[:5])
+    page.wait_for_function(
+        "n => document.querySelector('.mw-pitcher-pick select').selectedOptions[0].text.startsWith(n)",
+        arg=name[:5], timeout=20_000,
+    )
+    before = _settled(page, bars)
+    headline = page.locator(".mw-headline").inner_text()
+    assert name[:5] in headline
+    readout = page.locator(".mw-pitcher-weight .widget-readout").inner_text()
 
-            # move the pitcher-weight slider with the keyboard
-            handle = page.locator(".mw-pitcher-weight .noUi-handle")
-            handle.focus()
-            for _ in range(10):
-                handle.press("ArrowRight")
-            after = _wait_changed(page, bars, before)
-            assert after != before
-            assert page.locator(".mw-pitcher-weight .widget-readout").inner_text() != readout
-            _settled(page, bars, quiet_ms=800)
-            assert page.locator(".mw-headline").inner_text() != headline
-            assert page.locator(".mw-explorer .mw-status").inner_text().strip() == ""
-            shot = artifacts_dir / "dashboard.png"
-            page.screenshot(path=str(shot), full_page=True)
-        finally:
-            browser.close()
+    # move the pitcher-weight slider with the keyboard
+    handle = page.locator(".mw-pitcher-weight .noUi-handle")
+    handle.focus()
+    for _ in range(10):
+        handle.press("ArrowRight")
+    after = _wait_changed(page, bars, before)
+    assert after != before
+    assert page.locator(".mw-pitcher-weight .widget-readout").inner_text() != readout
+    _settled(page, bars, quiet_ms=800)
+    assert page.locator(".mw-headline").inner_text() != headline
+    assert page.locator(".mw-explorer .mw-status").inner_text().strip() == ""
+    shot = artifacts_dir / "dashboard.png"
+    page.screenshot(path=str(shot), full_page=True)
     # the charts rendered with every outside request blocked; the only ones tried are the
     # icon-font stylesheets of voila's page template (our panel uses no icon glyphs)
     assert all("fontawesome" in u for u in outside), outside
