@@ -97,7 +97,12 @@ def main() -> None:
 
 def _player_switch(pas) -> None:
     """Median time of a tier-view player switch: cached side tables vs recomputing tier shares."""
-    from matchup_widgets.contact import contact_cache_info, contact_model_for, contact_tiers, matchup_contact
+    from matchup_widgets.contact import (
+        contact_cache_info,
+        contact_model_for,
+        contact_tiers,
+        matchup_contact,
+    )
     from matchup_widgets.contact._dataset import _tier_shares
 
     model = contact_model_for(pas, kind="grid")  # the explorer's contact model

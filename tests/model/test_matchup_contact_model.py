@@ -14,9 +14,15 @@ import pandas as pd
 import pytest
 from numpy.testing import assert_allclose
 
-from matchup_widgets.contact import ContactModel, clear_contact_cache, contact_model_for, contact_outcome_counts
+from matchup_widgets.contact import (
+    ContactModel,
+    clear_contact_cache,
+    contact_model_for,
+    contact_outcome_counts,
+)
 from matchup_widgets.data import OUTCOMES, load_pas
 from matchup_widgets.model import MatchupModel, calibrate
+
 
 def _league(seed: int = 5, n_pa: int = 12_000) -> pd.DataFrame:
     rng = np.random.default_rng(seed)

@@ -11,7 +11,12 @@ import pandas as pd
 import pytest
 from numpy.testing import assert_allclose
 
-from matchup_widgets.contact import ContactModel, contact_cache_info, contact_model_for, contact_outcome_counts
+from matchup_widgets.contact import (
+    ContactModel,
+    contact_cache_info,
+    contact_model_for,
+    contact_outcome_counts,
+)
 from matchup_widgets.data import OUTCOMES, load_pas
 from matchup_widgets.model import MatchupModel
 from matchup_widgets.widgets import MatchupExplorer
@@ -53,7 +58,7 @@ def test_contact_basis_and_tier_chart_use_one_model(explorer, pas):
     assert ex.model.contact_model is ex.contact_model
     ex.controls["basis"].value = "contact"
     assert ex.status.last_error is None, ex.status.widget.value
-    model, batter, pitcher, kw = ex.current_query()
+    model = ex.current_query()[0]
     assert model.contact_model is ex.contact_model
     assert any(k[0] == "contact" and k[1] is ex.contact_model for k in ex.model.cache_)
     est = ex.estimate
