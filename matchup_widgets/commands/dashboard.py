@@ -12,8 +12,8 @@ import os
 import sys
 from pathlib import Path
 
-#: Environment variable that carries the plate-appearance file to the notebook.
-DATA_ENV = "MATCHUP_WIDGETS_DATA"
+from matchup_widgets._paths import DATA_ENV
+
 DEFAULT_NOTEBOOK = "matchup_explorer"
 
 

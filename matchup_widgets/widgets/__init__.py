@@ -1,9 +1,20 @@
 """Widgets: thin ipywidgets panels over the core and the chart builders."""
 
+from matchup_widgets._paths import DATA_ENV
+
 from .calibration import CalibrationLab
 from .card import MatchupCardExport
-from ._common import Coalescer, LiveChart, StatusLine, enable_offline_charts, guarded, live_chart, set_chart
-from ._explorer import DATA_ENV, MatchupExplorer
+from ._common import (
+    Coalescer,
+    LiveChart,
+    StatusLine,
+    enable_offline_charts,
+    guarded,
+    live_chart,
+    load_data,
+    set_chart,
+)
+from ._explorer import MatchupExplorer
 from ._picker import PlayerPicker, player_options
 from .lineup import LineupPanel
 from .options import OptionRanking
@@ -22,6 +33,7 @@ __all__ = [
     "enable_offline_charts",
     "guarded",
     "live_chart",
+    "load_data",
     "player_options",
     "set_chart",
 ]

@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import html
 import logging
+import os
 from collections.abc import Callable
 from typing import Any
 
@@ -272,3 +273,11 @@ def section(title: str, *children: W.Widget, note: str | None = None) -> W.VBox:
 def label_style() -> dict[str, str]:
     """Wide enough description column for the words on our controls."""
     return {"description_width": "110px"}
+
+
+def load_data(path: str | os.PathLike | None = None) -> Any:
+    """Load plate appearances for a panel: ``path``, else ``$MATCHUP_WIDGETS_DATA``, else the demo league."""
+    from matchup_widgets._paths import data_path
+    from matchup_widgets.data import load_pas
+
+    return load_pas(data_path(path))

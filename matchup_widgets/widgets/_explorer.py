@@ -7,7 +7,6 @@ import html
 import os
 from collections import OrderedDict
 from collections.abc import Callable
-from pathlib import Path
 from typing import Any
 
 import ipywidgets as W
@@ -21,12 +20,11 @@ from matchup_widgets.charts import (
 )
 from matchup_widgets.charts._theme import INK, MUTED
 
-from ._common import Coalescer, LiveChart, StatusLine, guarded, log, section
+from ._common import Coalescer, guarded, LiveChart, load_data, log, section, StatusLine
 from ._picker import PlayerPicker
 from ._tables import caution_html, headline_html, heatmap_table, outcome_table, run_table, tier_table
 
 #: Environment variable naming the plate-appearance file (set by ``matchup-widgets dashboard``).
-DATA_ENV = "MATCHUP_WIDGETS_DATA"
 
 _METHOD_WORDS = {
     "linear": "Weighted mix of rates",
@@ -225,15 +223,7 @@ class MatchupExplorer:
         ``path`` defaults to the file named by ``MATCHUP_WIDGETS_DATA``, else the demo league.
         Keyword arguments go to :class:`MatchupExplorer`.
         """
-        from matchup_widgets.data import load_pas
-
-        if path is None:
-            path = os.environ.get(DATA_ENV) or None
-        if path is None:
-            from matchup_widgets.data.demo import demo_path
-
-            path = demo_path()
-        return cls(load_pas(Path(path)), **kwargs)
+        return cls(load_data(path), **kwargs)
 
     @staticmethod
     def _state_options() -> list[tuple[str, int]]:

@@ -21,7 +21,7 @@ from matchup_widgets.charts import (
 from matchup_widgets.charts._calibration import pending_chart
 from matchup_widgets.export import csv_links_html, write_tables
 
-from ._common import StatusLine, guarded, label_style, live_chart, section, set_chart
+from ._common import guarded, label_style, live_chart, load_data, section, set_chart, StatusLine
 from ._tables import caution_html
 
 #: Words on screen for the calibration baselines.
@@ -31,23 +31,6 @@ BASELINE_LABELS: dict[str, str] = {
     "pitcher_only": "Pitcher only",
     "even_blend": "Even blend (0.5)",
 }
-
-def load_panel_data(path: str | None = None) -> Any:
-    """Load ``path``, else the file named by ``$MATCHUP_WIDGETS_DATA``, else the demo league."""
-    import os
-
-    from matchup_widgets.data import load_pas
-
-    from ._explorer import DATA_ENV
-
-    if path is None:
-        path = os.environ.get(DATA_ENV)
-    if not path:
-        from matchup_widgets.data.demo import demo_path
-
-        path = demo_path()
-    return load_pas(path)
-
 
 _SURFACE_Y = {"Batter prior (PA)": "batter_prior_pa", "Pitcher prior (PA)": "pitcher_prior_pa"}
 
@@ -175,7 +158,7 @@ class CalibrationLab:
     @classmethod
     def from_path(cls, path: str | None = None, **kwargs: Any) -> CalibrationLab:
         """Load the table named by ``path``, ``$MATCHUP_WIDGETS_DATA`` or the demo league."""
-        return cls(load_panel_data(path), **kwargs)
+        return cls(load_data(path), **kwargs)
 
     def show(self) -> None:
         """Display the panel."""

@@ -16,7 +16,7 @@ import pandas as pd
 from matchup_widgets.charts import option_ranking_chart
 from matchup_widgets.export import csv_links_html, write_tables
 
-from ._common import Coalescer, StatusLine, guarded, label_style, live_chart, section, set_chart
+from ._common import Coalescer, guarded, label_style, live_chart, load_data, section, set_chart, StatusLine
 from ._picker import PlayerPicker, player_options
 from ._tables import caution_html
 
@@ -128,9 +128,7 @@ class OptionRanking:
     @classmethod
     def from_path(cls, path: str | None = None, **kwargs: Any) -> OptionRanking:
         """Load ``path``, ``$MATCHUP_WIDGETS_DATA`` or the demo league, and build the panel."""
-        from .calibration import load_panel_data
-
-        return cls(load_panel_data(path), **kwargs)
+        return cls(load_data(path), **kwargs)
 
     def show(self) -> None:
         """Display the panel."""
