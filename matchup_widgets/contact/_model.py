@@ -18,7 +18,6 @@ from collections.abc import Sequence
 from typing import Any
 
 import numpy as np
-import pandas as pd
 
 from matchup_widgets.data import BATTED, DataError
 

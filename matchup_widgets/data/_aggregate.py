@@ -8,7 +8,6 @@ from __future__ import annotations
 
 from typing import Any
 
-import ibis
 import ibis.expr.types as ir
 import numpy as np
 import pandas as pd

@@ -5,7 +5,6 @@ from __future__ import annotations
 import difflib
 from typing import Any
 
-import ibis.expr.types as ir
 import numpy as np
 import pandas as pd
 

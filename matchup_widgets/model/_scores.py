@@ -10,9 +10,14 @@ appearances and collapsed cells (many PAs sharing one prediction):
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 import numpy as np
 
 from ..data import OUTCOMES
+
+if TYPE_CHECKING:  # pandas is imported where the table is built
+    import pandas as pd
 
 __all__ = ["brier_score", "log_loss", "observed_counts", "reliability_table"]
 
@@ -183,7 +188,7 @@ def log_loss(probabilities, observed) -> float:
     return float(-np.sum(y * logp) / y.sum())
 
 
-def reliability_table(probabilities, observed, *, n_bins: int = 10) -> "pd.DataFrame":
+def reliability_table(probabilities, observed, *, n_bins: int = 10) -> pd.DataFrame:
     """Predicted probability against observed frequency, per outcome, in equal-count bins.
 
     For each outcome the rows (PAs or cells) are sorted by their predicted probability and cut
