@@ -92,11 +92,27 @@ def _step(p: np.ndarray, table: AdvancementTable) -> tuple[np.ndarray, np.ndarra
     return trans, runs
 
 
+#: Why ``I - Q`` can be singular: some state is never left for the end of the inning.
+NEVER_ENDS = (
+    "the outcome distribution never ends the inning from some base-out state (no outcome "
+    "with positive probability leads toward a third out there), so the expected runs are "
+    "infinite; give every batter a positive probability of an out (K, GB_OUT or AIR_OUT)."
+)
+
+
+def _solve(a: np.ndarray, b: np.ndarray) -> np.ndarray:
+    """``np.linalg.solve`` that says in plain words why the chain has no solution."""
+    try:
+        return np.linalg.solve(a, b)
+    except np.linalg.LinAlgError:
+        raise ValueError(NEVER_ENDS) from None
+
+
 def _solve_re(p: np.ndarray, table: AdvancementTable) -> tuple[np.ndarray, np.ndarray]:
     """Run expectancy of the 24 transient states and the transient block ``I - Q``."""
     trans, runs = _step(p, table)
     a = _EYE - trans[:, :N_TRANSIENT]
-    return np.linalg.solve(a, runs), a
+    return _solve(a, runs), a
 
 
 def run_expectancy(probs: Any, *, advancement: AdvancementTable | None = None) -> np.ndarray:
@@ -207,7 +223,7 @@ def solve_by_outs(a: np.ndarray, b: np.ndarray, *, transpose: bool = False) -> n
     m = n // 3
     blk = [slice(0, m), slice(m, 2 * m), slice(2 * m, n)]
     if n % 3 or a[m:, :m].any() or a[2 * m :, m : 2 * m].any():
-        return np.linalg.solve(a.T if transpose else a, b)
+        return _solve(a.T if transpose else a, b)
     x = [None, None, None]
     order = (0, 1, 2) if transpose else (2, 1, 0)
     for i in order:
@@ -216,7 +232,7 @@ def solve_by_outs(a: np.ndarray, b: np.ndarray, *, transpose: bool = False) -> n
             if x[j] is not None:
                 # Upper blocks a[i, j] (j > i), or for a.T the transposed a[j, i] (j < i).
                 rhs -= (a[blk[j], blk[i]].T if transpose else a[blk[i], blk[j]]) @ x[j]
-        x[i] = np.linalg.solve(a[blk[i], blk[i]].T if transpose else a[blk[i], blk[i]], rhs)
+        x[i] = _solve(a[blk[i], blk[i]].T if transpose else a[blk[i], blk[i]], rhs)
     return np.concatenate(x)
 
 

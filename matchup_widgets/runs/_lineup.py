@@ -92,6 +92,7 @@ def lineup_runs(
     >>> round(res.runs_per_9, 9), round(float(res.pa_by_slot.sum()), 9)
     (9.0, 36.0)
     """
+    _check_count(max_runs, "max_runs")
     table = _table(advancement)
     p = _order(order_probs, table)
     n = N_TRANSIENT * _N_SLOTS

@@ -9,6 +9,7 @@ import pandas as pd
 
 from ._advancement import AdvancementTable
 from ._chain import (
+    _solve,
     _solve_re,
     _table,
     as_probs,
@@ -25,7 +26,7 @@ def _weights(p: np.ndarray, table: AdvancementTable) -> np.ndarray:
     """RE24 value of each outcome relative to the average PA (array over outcomes)."""
     re, a = _solve_re(p, table)
     # Expected visits to each state in an inning from (0 outs, empty): row 0 of (I - Q)^-1.
-    visits = np.linalg.solve(a.T, _START)
+    visits = _solve(a.T, _START)
     share = visits / visits.sum()
     re_full = np.append(re, 0.0)
     # value[o] = sum_s share[s] * (sum_t T[o,s,t] (RE[t] + R[o,s,t]) - RE[s])
@@ -102,7 +103,6 @@ def woba_weights(
     """
     table = _table(advancement)
     p = as_probs(probs, table)
-    lw = _weights(p, table)
     on = table.on_base_mask
     p_out = p[~on].sum()
     obp = p[on].sum()
@@ -112,6 +112,7 @@ def woba_weights(
             f"got P(out) = {p_out:g}, P(on base) = {obp:g}."
         )
         raise ValueError(msg)
+    lw = _weights(p, table)
     above_out = lw - (p[~on] @ lw[~on]) / p_out
     scale = float(obp / (p[on] @ above_out[on]))
     names = [o for o, m in zip(table.outcomes, on) if m]

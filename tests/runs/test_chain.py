@@ -158,3 +158,17 @@ def test_block_solver_matches_a_dense_solve(transpose):
     a[20, 3] = -0.01  # a move that takes an out back: dense fallback
     ref = np.linalg.solve(a.T if transpose else a, b)
     assert_allclose(solve_by_outs(a, b, transpose=transpose), ref, rtol=1e-12)
+
+
+@pytest.mark.parametrize(
+    "call",
+    [
+        lambda: run_expectancy({"HR": 1.0}),
+        lambda: runs_per_9({"BB": 0.5, "HR": 0.5}),
+    ],
+)
+def test_a_chain_that_never_ends_says_why(call):
+    # Without any out the inning never ends: I - Q is singular (closed form: every row of Q
+    # sums to 1). The user gets a plain reason instead of numpy's "Singular matrix".
+    with pytest.raises(ValueError, match="never ends the inning"):
+        call()

@@ -59,3 +59,10 @@ def test_exact_lineup_runs_agree_with_200k_simulated_innings(league_rates):
 def test_lineup_needs_nine_distributions(shape):
     with pytest.raises(ValueError, match="order_probs"):
         lineup_runs(np.full(shape, 1 / shape[-1]))
+
+
+def test_lineup_that_never_makes_an_out_and_bad_max_runs_are_refused():
+    with pytest.raises(ValueError, match="never ends the inning"):
+        lineup_runs([{"BB": 1.0}] * 9)
+    with pytest.raises(ValueError, match="max_runs must be a whole number >= 1"):
+        lineup_runs([{"HR": 0.25, "K": 0.75}] * 9, max_runs=-1)

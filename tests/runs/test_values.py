@@ -104,3 +104,8 @@ def test_situation_closed_form():
 def test_woba_needs_outs_and_on_base():
     with pytest.raises(ValueError, match="needs both outs and on-base"):
         woba_weights({"K": 1.0})
+    # all walks: the chain never ends, but the reason given is the missing outs
+    with pytest.raises(ValueError, match=r"needs both outs and on-base.*P\(out\) = 0"):
+        woba_weights({"BB": 1.0})
+    with pytest.raises(ValueError, match="never ends the inning"):
+        linear_weights({"HR": 1.0})
