@@ -158,6 +158,7 @@ class AdvancementTable:
             on_base=self.on_base + tuple(on_base),
             counts=counts,
             from_data=from_data,
+            n_skipped=self.n_skipped,
         )
 
     def row(self, outcome: str) -> tuple[np.ndarray, np.ndarray]:
@@ -319,8 +320,13 @@ def _cells(data: Any) -> tuple[pd.DataFrame, int]:
             f"{columns[:12]}. Map your column names when loading, or use default_advancement()."
         )
         raise DataError(msg)
+    # Bases after a third out carry no information (every runner is stranded), so a
+    # missing value there is not a gap: without this, inning-ending plays (double plays
+    # with one out among them) would be left out and the table would lean to live plays.
     if is_frame:
         rows = table[list(needed)]
+        ended = pd.to_numeric(rows["outs_after"], errors="coerce").ge(3).fillna(False).to_numpy(dtype=bool)
+        rows = rows.assign(bases_after=rows["bases_after"].mask(ended, 0))
         complete = rows.notna().all(axis=1)
         rows = rows[complete]
         cells = rows[list(_CELL_KEYS)].assign(
@@ -328,6 +334,7 @@ def _cells(data: Any) -> tuple[pd.DataFrame, int]:
         )
         return cells, int((~complete).sum())
     n_all = int(table.count().execute())
+    table = table.mutate(bases_after=(table.outs_after >= 3).ifelse(0, table.bases_after))
     kept = table.filter([table[c].notnull() for c in needed])
     cells = (
         kept.group_by(list(_CELL_KEYS))
@@ -362,7 +369,8 @@ def estimate_advancement(data: Any, *, min_count: int = MIN_COUNT) -> Advancemen
     Each (outcome, base-out state) row with at least ``min_count`` plate appearances uses
     the observed share of each resulting state and the mean runs on those plays; rarer
     rows fall back to :func:`default_advancement`. Rows missing any base-out value are
-    left out and counted in the returned table's ``n_skipped``. Loaded plate appearances
+    left out and counted in the returned table's ``n_skipped``, except ``bases_after``
+    on a play that makes the third out, which is not needed. Loaded plate appearances
     and ibis tables are counted by their engine.
 
     Parameters

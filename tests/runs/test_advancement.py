@@ -122,6 +122,8 @@ def test_estimate_through_the_engine_matches_pandas():
     a = estimate_advancement(plays, min_count=5)
     b = estimate_advancement(ibis.memtable(plays), min_count=5)
     assert a.n_skipped == b.n_skipped == 10
+    # extra rows keep the count of rows the estimate left out
+    assert a.with_extra_rows({"1B_x": a.row("1B")}).n_skipped == 10
     assert_allclose(a.transitions, b.transitions, atol=1e-12)
     assert_allclose(a.runs, b.runs, atol=1e-12)
     assert (a.counts == b.counts).all()
@@ -240,3 +242,23 @@ def test_hit_row_checks_its_options(kwargs, match):
     code = kwargs.pop("code")
     with pytest.raises(ValueError, match=match):
         hit_row(code, **kwargs)
+
+
+@pytest.mark.parametrize("engine", ["pandas", "ibis"])
+@pytest.mark.parametrize("dtype", ["float64", "Int64"])
+def test_missing_bases_after_a_third_out_is_not_a_gap(engine, dtype):
+    # Bases after the third out mean nothing; a table that leaves them empty must give the
+    # same estimate as one that fills them (hand rule: the play goes to the three-out state).
+    plays = _sample_plays(5_000, seed=4)
+    blank = plays.copy()
+    blank["bases_after"] = blank["bases_after"].astype(dtype)
+    blank.loc[blank["outs_after"] == 3, "bases_after"] = None
+    assert blank["bases_after"].isna().sum() > 500
+    if engine == "ibis":
+        ibis = pytest.importorskip("ibis")
+        blank = ibis.memtable(blank)
+    a = estimate_advancement(plays, min_count=5)
+    b = estimate_advancement(blank, min_count=5)
+    assert b.n_skipped == 0
+    assert_allclose(b.transitions, a.transitions, atol=1e-12)
+    assert (b.counts == a.counts).all()
