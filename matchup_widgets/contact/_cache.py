@@ -16,12 +16,16 @@ from typing import Any
 
 import pandas as pd
 
+from matchup_widgets.data import BASE_OUT_COLUMNS
+
 from ._frames import frame_of
 
 _MAX_FRAMES = 4
+# every column the contact layer reads or keeps on its per-ball tables (the base-out
+# columns feed the data's own advancement and the tiered hits)
 _FINGERPRINT_COLUMNS = (
     "game_id", "batter_id", "pitcher_id", "batter_hand", "pitcher_hand",
-    "outcome", "exit_velo", "launch_angle", "season", "game_date",
+    "outcome", "exit_velo", "launch_angle", "season", "game_date", *BASE_OUT_COLUMNS,
 )
 _by_object: weakref.WeakKeyDictionary = weakref.WeakKeyDictionary()
 _by_print: OrderedDict[str, dict] = OrderedDict()

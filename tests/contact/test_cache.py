@@ -108,3 +108,19 @@ def test_returned_tables_are_copies(loaded, grid):
     assert contact_cache_info()["hits"]["tier_shares"] == 1
     assert "extra" not in again.columns and bool((again["n_measured"] >= 0).all())
     assert np.allclose(again.filter(like="share_").sum(axis=1).dropna(), 1.0)
+
+
+def test_frames_that_differ_only_in_base_out_columns_are_not_mixed_up(make_synth):
+    # The per-ball table keeps the base-out columns (tiered hits read them), so two
+    # DataFrames that differ only there must not share it.
+    from matchup_widgets.contact import contact_predictions
+
+    df = make_synth(3000, seed=5, base_out=True)
+    df["outs_after"], df["bases_after"], df["runs_on_play"] = df["outs_before"], df["bases_before"], 0
+    model = ContactModel(kind="grid").fit(df)
+    first = contact_predictions(df, model=model)
+    other = df.assign(runs_on_play=1)
+    second = contact_predictions(other, model=model)
+    assert second is not first
+    assert set(second["runs_on_play"]) == {1}
+    assert contact_predictions(df.copy(), model=model) is first  # same data: still reused
