@@ -180,11 +180,18 @@ def _as_pas(source: Any, name: str):
 
 
 def _side_counts(fit: Any, role: str, basis: str) -> pd.DataFrame:
-    """Fitting counts per player and split for one side (observed or contact basis)."""
-    if basis == "contact":
-        from ..contact import contact_outcome_counts
+    """Fitting counts per player and split for one side (observed or contact basis).
 
-        return contact_outcome_counts(fit, role=role)
+    The contact basis takes the counts exactly as ``MatchupModel(basis="contact")`` does
+    (per season, which sets the fallback mix of unmeasured balls, then summed), so a fitted
+    setting is scored on the predictions the estimator will make.
+    """
+    if basis == "contact":
+        from ._matchup import _contact_counts
+
+        table = _contact_counts(fit, role=role, seasons=None)
+        keys = ["player_id", *_SPLIT_KEYS]
+        return table.groupby(keys, sort=True, observed=True, as_index=False)[[*OUTCOMES, "pa"]].sum()
     return outcome_counts(fit, role=role)
 
 
@@ -196,7 +203,8 @@ class _Prepared:
     cell_of_pa: np.ndarray  # cell of each held-out PA
     held: pd.DataFrame  # held-out PAs (game_id, outcome)
     y: np.ndarray  # (n_cells, 9) held-out outcome counts
-    league: np.ndarray  # (n_cells, 9) league distribution of the cell's split
+    league: np.ndarray  # (n_cells, 9) league of the cell's split on the basis (shrink target)
+    league_observed: np.ndarray  # (n_cells, 9) observed league of the split (the league-only baseline)
     sides: dict  # role -> (row counts (n_rows, 9), row league (n_rows, 9), row of each cell)
     n_fit_pa: int
     split: str
@@ -286,9 +294,11 @@ def _prepare(pas, score, *, holdout_share: float, seed: int, season_forward: boo
         )
         raise DataError(msg)
     counts = {role: _side_counts(fit, role, basis) for role in ("batter", "pitcher")}
-    # every fitting PA has one batter: the batters' observed counts summed per split are the
-    # league's (one engine query fewer); the contact basis asks the engine for observed ones
-    league4 = _league_table(counts["batter"] if basis == "observed" else league_counts(fit))
+    # every fitting PA has one batter: the batters' counts summed per split are the league's
+    # on the same basis (one engine query fewer), the target MatchupModel shrinks toward too;
+    # the league-only baseline stays the observed league whatever the basis
+    league4 = _league_table(counts["batter"])
+    observed4 = league4 if basis == "observed" else _league_table(league_counts(fit))
     cells, cell_of_pa = collapse_cells(held, return_inverse=True)
     sides = {role: _side_rows(cells, counts[role], f"{role}_id", league4) for role in counts}
     cell_split = _split_index(cells["batter_hand"].astype(str), cells["pitcher_hand"].astype(str))
@@ -298,6 +308,7 @@ def _prepare(pas, score, *, holdout_share: float, seed: int, season_forward: boo
         held=held,
         y=cells[list(OUTCOMES)].to_numpy(dtype=float),
         league=league4[cell_split],
+        league_observed=observed4[cell_split],
         sides=sides,
         n_fit_pa=int(n_fit),
         split=split,
@@ -407,7 +418,7 @@ def calibrate(
         ip = int(np.flatnonzero(pp == best["pitcher_prior_pa"])[0])
         w_best = float(best["pitcher_weight"])
         p_best = linear_blend(bs[ib], qs[ip], w_best)
-        baselines = _baselines(a_, b_, c_, total, lg, y)
+        baselines = _baselines(a_, b_, c_, total, prep.league_observed, y)
         steps.update()
 
         steps.set_postfix_str("two-stage surface")
