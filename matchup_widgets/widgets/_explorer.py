@@ -31,11 +31,14 @@ _METHOD_WORDS = {
     "odds-ratio": "Odds ratio (Log5)",
     "two-stage": "Two-stage (ball in play first)",
 }
+# short enough to read in full in the 336 px dropdown
 _PLATOON = (
-    ("Automatic (usual side vs the pitcher's hand)", "auto"),
-    ("What if: batter hits left-handed", "L"),
-    ("What if: batter hits right-handed", "R"),
+    ("Automatic (from the hands)", "auto"),
+    ("What if: bats left-handed", "L"),
+    ("What if: bats right-handed", "R"),
 )
+#: Blend methods that have no pitcher weight (the odds-ratio blend counts both sides fully).
+_NO_WEIGHT = frozenset({"odds-ratio"})
 _BASIS = (("Observed", "observed"), ("Contact-based", "contact"))
 _STYLE = {"description_width": "110px"}
 _CACHE_SIZE = 24
@@ -176,6 +179,8 @@ class MatchupExplorer:
         self.seasons_readout = W.HTML(value=_season_words(c["seasons"].value), layout=W.Layout(width="86px"))
         self.seasons_readout.add_class("mw-seasons-readout")
         c["seasons"].observe(self._on_seasons_readout, names="value")
+        c["method"].observe(self._on_method_weight, names="value")
+        self._on_method_weight({"new": c["method"].value})
         if batter is not None:
             self.batter_picker.select(batter)
         if pitcher is not None:
@@ -348,6 +353,15 @@ class MatchupExplorer:
     # ---- callbacks -----------------------------------------------------------------------
     def _on_seasons_readout(self, change: Any) -> None:
         self.seasons_readout.value = _season_words(change["new"])
+
+    def _on_method_weight(self, change: Any) -> None:
+        # the odds-ratio blend ignores the pitcher weight: a live slider there would move nothing
+        slider = self.controls["pitcher_weight"]
+        slider.disabled = change["new"] in _NO_WEIGHT
+        slider.tooltip = (
+            "The odds-ratio blend has no pitcher weight: both sides count fully (Log5)"
+            if slider.disabled else "Share of the pitcher's side in the blend (0 = batter only, 1 = pitcher only)"
+        )
 
     def _on_apply_fitted(self, _button: Any = None) -> None:
         if self.calibration is None:

@@ -117,7 +117,12 @@ def _woba(x: float) -> str:
 
 
 def _runs(x: float) -> str:
-    return "–" if not np.isfinite(x) else f"{x:+.3f}"
+    """Signed runs to 3 decimals; a rounding-level difference reads +0.000, never -0.000.
+
+    >>> _runs(-1e-17), _runs(-0.0123)
+    ('+0.000', '-0.012')
+    """
+    return "–" if not np.isfinite(x) else f"{round(x, 3) + 0.0:+.3f}"
 
 
 _ROWS = (

@@ -293,3 +293,27 @@ def test_season_readout_shows_the_whole_range(explorer):
     ex.controls["seasons"].value = (first, last)
     assert f"{first} – {last}" in ex.seasons_readout.value
     assert ex.status.last_error is None, ex.status.widget.value
+
+
+def test_pitcher_weight_slider_is_off_where_the_blend_has_no_weight(explorer):
+    # the odds-ratio blend (generalised Log5) takes no pitcher weight: moving the slider
+    # there changed nothing on screen, so the slider is disabled and says why
+    ex = explorer
+    slider = ex.controls["pitcher_weight"]
+    ex.controls["method"].value = "odds-ratio"
+    assert slider.disabled and "no pitcher weight" in slider.tooltip
+    before = _matchup_rows(ex)
+    ex.apply_settings(pitcher_weight=0.9)  # the model indeed ignores it
+    assert _matchup_rows(ex) == before
+    for method in ("linear", "two-stage"):
+        ex.controls["method"].value = method
+        assert not slider.disabled
+    assert ex.status.last_error is None, ex.status.widget.value
+
+
+def test_league_runs_column_never_reads_minus_zero(explorer):
+    from matchup_widgets.widgets._tables import _runs
+
+    assert _runs(-1e-17) == "+0.000" and _runs(0.0) == "+0.000" and _runs(-0.0004) == "+0.000"
+    assert _runs(-0.0123) == "-0.012" and _runs(float("nan")) == "–"
+    assert "-0.000" not in explorer.headline.value
