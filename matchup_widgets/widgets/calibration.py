@@ -96,6 +96,7 @@ class CalibrationLab:
             value=False, description="Also fit the other basis for the method comparison (slower: 10-30 s)",
             disabled=not has_contact,
             indent=False,
+            layout=W.Layout(width="auto"),  # the default width cut the words off mid-sentence
         )
         self.fit_button = W.Button(description="Fit on held-out games", button_style="primary",
                                    layout=W.Layout(width="220px"))
@@ -118,11 +119,12 @@ class CalibrationLab:
         self.csv_button = W.Button(description="CSV of the numbers", disabled=True, layout=W.Layout(width="180px"))
         self.csv_button.on_click(guarded(self.status, "Could not prepare the CSV files")(self._on_csv))
 
+        # before the first fit each chart says what will fill it, instead of empty axes and legends
         self.surface_chart = live_chart(pending_chart("Click 'Fit on held-out games' to draw the Brier surface."))
         self.surface_chart.add_class("mw-brier-surface")
-        self.skill_chart = live_chart(skill_chart(pd.DataFrame({"baseline": [], "skill": []})))
-        self.methods_chart = live_chart(method_comparison_chart(pd.DataFrame({"method": [], "basis": [], "brier": []})))
-        self.reliability_chart = live_chart(reliability_chart(_empty_reliability()))
+        self.skill_chart = live_chart(pending_chart("The skill over each simple forecast shows here after a fit."))
+        self.methods_chart = live_chart(pending_chart("The blend methods' held-out Brier scores show here after a fit."))
+        self.reliability_chart = live_chart(pending_chart("Forecast against observed share, per outcome, after a fit."))
 
         self.fit_button.on_click(guarded(self.status, "Fit failed")(self._on_fit))
         self.apply_button.on_click(guarded(self.status, "Could not apply the settings")(self._on_apply))
@@ -336,6 +338,3 @@ class CalibrationLab:
         self.csv_button.disabled = False
         self.downloads.value = ""
 
-
-def _empty_reliability() -> pd.DataFrame:
-    return pd.DataFrame({"outcome": [], "mean_predicted": [], "observed_rate": [], "n_pa": []})

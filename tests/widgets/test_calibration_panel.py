@@ -164,3 +164,16 @@ def test_caution_line_is_at_the_foot(fitted):
 
     lab, _ = fitted
     assert lab.widget.children[-1] is lab.caution and CAUTION in lab.caution.value
+
+
+def test_before_a_fit_every_chart_says_what_will_fill_it(pas, fitted):
+    # empty charts drew bare axes and orphan legends ("Basis", "PAs in bin") on screen
+    fresh = CalibrationLab(pas, progress=False, **_FAST)
+    charts = (fresh.surface_chart, fresh.skill_chart, fresh.methods_chart, fresh.reliability_chart)
+    for chart in charts:
+        spec = chart.chart.to_dict()
+        assert spec["mark"]["type"] == "text" and "fit" in str(spec["datasets"]).lower()
+    assert fresh.compare_bases.layout.width == "auto"  # its words read in full
+    lab, _ = fitted
+    assert lab.skill_chart.chart.to_dict()["layer"][0]["mark"]["type"] == "bar"  # a fit replaces them
+    assert lab.reliability_chart.chart.to_dict()["facet"]["field"] == "outcome"
