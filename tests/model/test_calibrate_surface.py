@@ -11,6 +11,7 @@ from matchup_widgets.model import (
     brier_score,
     linear_blend,
     linear_weight_surface,
+    odds_ratio_blend,
     quadratic_coefficients,
     shrink,
     two_stage_blend,
@@ -158,3 +159,26 @@ def test_surface_rejects_bad_grids():
         linear_weight_surface(y, y, y, lg, weights=[0, 1.5])
     with pytest.raises(ValueError, match="batter_priors must be .* >= 0"):
         linear_weight_surface(y, y, y, lg, batter_priors=[-5])
+
+
+@pytest.mark.parametrize(("truth", "n_fit", "best_prior"), [("linear", 50, 100.0), ("odds-ratio", 1000, 0.0)])
+def test_best_priors_follow_the_true_rule(truth, n_fit, best_prior):
+    # Talents drawn from Dirichlet(100 * league), each side's fitting counts from n_fit PAs.
+    # Linear truth: the best prediction of each side is its posterior mean, which is shrink
+    # with prior 100 (Dirichlet-multinomial conjugacy, closed form), so the surface picks
+    # 100/100. Odds-ratio truth (each side's deviation from the league counts in full) with
+    # well-measured sides: a linear blend's two weights sum to 1, so it already damps both
+    # deviations and any shrinkage only damps them further; the surface picks 0/0 (as the
+    # demo league, whose true rule is an odds ratio, does). Priors are not stuck at 0.
+    rng = np.random.default_rng(0)
+    n_cells = 30_000
+    b, q = _players(rng, n_cells, 100.0), _players(rng, n_cells, 100.0)
+    p = 0.5 * b + 0.5 * q if truth == "linear" else odds_ratio_blend(b, q, _LEAGUE)
+    bc, qc = rng.multinomial(n_fit, b).astype(float), rng.multinomial(n_fit, q).astype(float)
+    y = rng.multinomial(1, p).astype(float)
+    priors = [0, 25, 100, 400]
+    surf = linear_weight_surface(y, bc, qc, np.broadcast_to(_LEAGUE, y.shape), batter_priors=priors,
+                                 pitcher_priors=priors)
+    best = surf.loc[surf["brier"].idxmin()]
+    assert (best["batter_prior_pa"], best["pitcher_prior_pa"]) == (best_prior, best_prior)
+    assert abs(best["pitcher_weight"] - 0.5) <= 0.08
