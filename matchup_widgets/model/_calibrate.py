@@ -262,12 +262,31 @@ def _fit_source(pas, held_games: np.ndarray, basis: str):
     return table.anti_join(held, table.game_id.cast("string") == held.game_id)
 
 
+def _check_no_shared_games(fit_frame: pd.DataFrame, score_frame: pd.DataFrame) -> None:
+    """A separate score table must not hold games of the fitting table (same id and date)."""
+    keys = ["game_id", "game_date"]
+
+    def games(frame: pd.DataFrame) -> pd.MultiIndex:
+        return pd.MultiIndex.from_frame(frame[keys].astype(str)).unique()
+
+    shared = games(score_frame).intersection(games(fit_frame))
+    if len(shared):
+        examples = ", ".join(f"{g} ({d})" for g, d in shared[:5])
+        msg = (
+            f"the score table shares {len(shared)} game(s) with the fitting data (game_id and game_date, "
+            f"e.g. {examples}); their PAs would be scored by distributions fitted on them. Drop those "
+            "games from one of the tables, or hold out a share of games instead (holdout_share)."
+        )
+        raise DataError(msg)
+
+
 def _prepare(pas, score, *, holdout_share: float, seed: int, season_forward: bool, basis: str) -> _Prepared:
     """Split, count both sides on the fitting rows, collapse the held-out PAs into cells."""
     frame = pas.frame
     if score is not None:
         fit, held, split = pas, score.frame, "separate"
         n_fit = len(frame)
+        _check_no_shared_games(frame, held)
     else:
         if season_forward:
             if "season" not in frame.columns:
@@ -349,7 +368,8 @@ def calibrate(
     seed : int, default 0
         Seed of the game split and of the bootstrap.
     score : PlateAppearances or source, optional
-        A separate table to score on; then all of ``pas`` is used for fitting.
+        A separate table to score on; then all of ``pas`` is used for fitting. It must not
+        share a game (same ``game_id`` and ``game_date``) with ``pas``.
     season_forward : bool, default False
         Fit on the earlier seasons and score on the last one instead of a random share.
     priors : sequence of float, default (0, 25, 50, 100, 200, 400, 800)
@@ -375,7 +395,8 @@ def calibrate(
     Raises
     ------
     DataError
-        If the table cannot be split or the held-out part is empty.
+        If the table cannot be split, the held-out part is empty, or a separate score table
+        shares games with ``pas``.
     ValueError
         On a bad option.
 

@@ -168,3 +168,13 @@ def test_fitted_settings_reproduce_the_matchup_model(pas, result):
             cell = prep.cells.iloc[i]
             est = model.predict(cell["batter_id"], cell["pitcher_id"], batter_hand=cell["batter_hand"])
             assert_allclose(est.distributions.loc["matchup", list(OUTCOMES)].to_numpy(float), p[i], rtol=1e-9)
+
+
+def test_separate_score_table_sharing_games_with_the_data_is_refused(pas):
+    # Scoring PAs whose games were also fitted on is not a held-out score.
+    from matchup_widgets.data import DataError
+
+    frame = pas.frame
+    overlap = load_pas(frame.loc[frame["game_id"].isin(["g00003", "g00007"])], drop_duplicates=False)
+    with pytest.raises(DataError, match=r"the score table shares 2 game\(s\) with the fitting data .*g00003"):
+        calibrate(pas, score=overlap, priors=(0,), n_boot=10, progress=False)
