@@ -132,6 +132,12 @@ def test_season_forward_scores_the_last_season(pas):
     seasons = pas.frame["season"]
     assert r.split == "season-forward"
     assert (r.n_fit_pa, r.n_holdout_pa) == ((seasons < 2032).sum(), (seasons == 2032).sum())
+    # the scored forecasts come from the earlier season alone (pandas recomputation, PA by PA)
+    frame = pas.frame
+    fit, hold = frame.loc[seasons < 2032], frame.loc[seasons == 2032]
+    p, lg = _per_pa_reference(fit, hold, r.batter_prior_pa, r.pitcher_prior_pa, r.pitcher_weight)
+    assert_allclose(r.brier, brier_score(p, hold["outcome"].to_numpy()), rtol=1e-10)
+    assert_allclose(r.brier_baselines["league"], brier_score(lg, hold["outcome"].to_numpy()), rtol=1e-10)
 
 
 def test_separate_score_table_fits_on_all_of_data(pas):
