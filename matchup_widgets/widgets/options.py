@@ -14,7 +14,8 @@ import ipywidgets as W
 import pandas as pd
 
 from matchup_widgets.charts import option_ranking_chart
-from matchup_widgets.export import csv_links_html, write_tables
+from matchup_widgets.charts._calibration import pending_chart
+from matchup_widgets.export import _settings_line, csv_links_html, write_tables
 
 from ._common import Coalescer, guarded, label_style, live_chart, load_data, section, set_chart, StatusLine
 from ._picker import PlayerPicker, player_options
@@ -248,14 +249,15 @@ class OptionRanking:
         table = self.rank()
         self.ranking = table
         s = self.model.get_params()
+        # the same words as the card: each method with the weights it really uses
         self.settings_note.value = (
-            f'<div style="font-size:12px">Settings: {html.escape(s["method"])} blend, pitcher weight '
-            f'{s["pitcher_weight"]:.2f}, priors batter {s["batter_prior_pa"]:g} PA, pitcher '
-            f'{s["pitcher_prior_pa"]:g} PA, {html.escape(s["basis"])} basis; bars show '
+            f'<div style="font-size:12px">{html.escape(_settings_line(s))}; bars show '
             f'{s["interval"]:.0%} intervals.</div>'
         )
         if table.empty:
-            self.table.value = "<i>Choose a fixed player and at least one option.</i>"
+            message = "Choose a fixed player and at least one option."
+            self.table.value = f"<i>{message}</i>"
+            set_chart(self.chart, pending_chart(message))  # not the last ranking, which no longer holds
             return
         side = _OTHER[self.fixed_role]
         measure = table["measure"].iloc[0]

@@ -86,3 +86,15 @@ def test_caution_line_is_at_the_foot(pas, model):
 
     panel = OptionRanking(pas, model=model, fixed="p2", candidates=["b0", "b3"])
     assert panel.widget.children[-1] is panel.caution and CAUTION in panel.caution.value
+
+
+def test_emptied_choice_clears_the_chart_and_settings_name_the_methods_own_weights(pas, model):
+    panel = OptionRanking(pas, model=model, fixed="p2", candidates=["b0", "b3"])
+    # the model is an odds-ratio blend: it has exponents, not a pitcher weight
+    assert "odds-ratio blend, exponents batter 1, pitcher 1" in panel.settings_note.value
+    assert "pitcher weight" not in panel.settings_note.value
+    panel.candidates.value = ()
+    spec = panel.chart.chart.to_dict()
+    assert spec["mark"]["type"] == "text" and "Choose" in str(spec["datasets"])  # not the stale ranking
+    panel.candidates.value = ("b0",)
+    assert panel.chart.chart.to_dict()["layer"][0]["encoding"]["y"]["sort"] == panel.ranking["name"].tolist()
