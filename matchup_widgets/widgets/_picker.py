@@ -7,7 +7,7 @@ from typing import Any
 import ipywidgets as W
 import pandas as pd
 
-from ._common import StatusLine
+from ._common import guarded, StatusLine
 
 _HAND_WORDS = {
     "batter": {"L": "bats L", "R": "bats R", "L/R": "switch"},
@@ -71,7 +71,9 @@ class PlayerPicker:
         )
         self.search.add_class(f"mw-{role}-search")
         self.pick.add_class(f"mw-{role}-pick")
-        self.search.observe(self._on_search, names="value")
+        # a failed search shows in the panel's status line (ipywidgets would log and drop it)
+        on_search = self._on_search if status is None else guarded(status, f"Could not search {role}s")(self._on_search)
+        self.search.observe(on_search, names="value")
         self.widget = W.VBox([self.search, self.pick])
 
     def _options(self, text: str) -> list[tuple[str, str]]:

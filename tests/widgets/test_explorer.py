@@ -317,3 +317,22 @@ def test_league_runs_column_never_reads_minus_zero(explorer):
     assert _runs(-1e-17) == "+0.000" and _runs(0.0) == "+0.000" and _runs(-0.0004) == "+0.000"
     assert _runs(-0.0123) == "-0.012" and _runs(float("nan")) == "–"
     assert "-0.000" not in explorer.headline.value
+
+
+def test_a_failing_search_shows_in_the_panel(explorer, monkeypatch):
+    ex = explorer
+    chosen = ex.controls["batter"].value
+
+    def broken(*args, **kwargs):
+        msg = "the player table could not be read"
+        raise OSError(msg)
+
+    monkeypatch.setattr(ex.batter_picker, "_search_players", broken)
+    ex.controls["batter_search"].value = "qu"
+    assert isinstance(ex.status.last_error, OSError)
+    assert "Could not search batters" in ex.status.widget.value
+    assert ex.controls["batter"].value == chosen
+    monkeypatch.undo()
+    ex.controls["batter_search"].value = ""
+    ex.controls["pitcher_weight"].value = 0.44  # the next change clears the message
+    assert ex.status.last_error is None
