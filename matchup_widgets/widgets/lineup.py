@@ -250,7 +250,8 @@ class LineupPanel:
 
 
 def _slots_html(slots: pd.DataFrame) -> str:
-    head = "".join(f"<th style='padding:2px 8px;text-align:left'>{h}</th>"
+    # headers wrap (the table's nowrap cut "PA per 9 innings" off at the panel's edge); cells do not
+    head = "".join(f"<th style='padding:2px 8px;text-align:left;white-space:normal;vertical-align:bottom'>{h}</th>"
                    for h in ("#", "Batter", "Split", "PA in split", "Runs per PA vs average", "PA per 9 innings"))
     rows = "".join(
         f"<tr><td style='padding:2px 8px'>{r.slot}</td><td style='padding:2px 8px'>{html.escape(r.batter)}</td>"

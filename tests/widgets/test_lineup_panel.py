@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import re
+
 import numpy as np
 import pytest
 
@@ -109,3 +111,11 @@ def test_caution_line_is_at_the_foot(panel):
     from matchup_widgets.charts._theme import CAUTION
 
     assert panel.widget.children[-1] is panel.caution and CAUTION in panel.caution.value
+
+
+def test_slot_table_headers_wrap_inside_the_panel(panel):
+    # the whole table was nowrap, so the last header ran past the 560 px column and was cut
+    heads = re.findall(r"<th style='([^']*)'>([^<]*)</th>", panel.slot_table.value)
+    assert [h for _, h in heads][-1] == "PA per 9 innings"
+    assert all("white-space:normal" in style for style, _ in heads)
+    assert "white-space:nowrap" in panel.slot_table.value  # the cells stay on one line
