@@ -21,6 +21,17 @@ def _prior_list(text: str) -> tuple[float, ...]:
     return values
 
 
+def _replicates(text: str) -> int:
+    try:
+        value = int(text)
+    except ValueError:
+        value = 0
+    if value < 1:
+        msg = f"--n-boot takes a whole number of bootstrap replicates >= 1 (e.g. 200); got {text!r}"
+        raise argparse.ArgumentTypeError(msg)
+    return value
+
+
 def register(subparsers: argparse._SubParsersAction) -> None:
     """Add the ``fit`` command."""
     p = subparsers.add_parser(
@@ -46,7 +57,7 @@ def register(subparsers: argparse._SubParsersAction) -> None:
                    help="fit distributions from observed outcomes or contact-expected ones (default observed)")
     p.add_argument("--priors", type=_prior_list, default=None, metavar="LIST",
                    help="prior sizes in PAs to search, comma-separated (default 0,25,50,100,200,400,800)")
-    p.add_argument("--n-boot", type=int, default=200, metavar="N", help="bootstrap replicates (default 200)")
+    p.add_argument("--n-boot", type=_replicates, default=200, metavar="N", help="bootstrap replicates (default 200)")
     p.add_argument("--quiet", action="store_true", help="no progress line on stderr")
     p.add_argument("--json", action="store_true", help="print one JSON object on stdout")
     p.set_defaults(func=run)
@@ -90,7 +101,7 @@ def run(args: argparse.Namespace) -> int:
             progress=not args.quiet,
         )
     except (DataError, ValueError, FileNotFoundError) as exc:
-        return fail(str(exc), as_json=args.json)
+        return fail(f"fit: {exc}", as_json=args.json)
     payload = result.to_dict()
     wanted = args.method or list(_METHODS)
     payload["methods"] = [m for m in payload["methods"] if m["method"] in wanted]

@@ -40,7 +40,12 @@ def register(subparsers: argparse._SubParsersAction) -> None:
 
 
 def _read_rates(path: str, *, normalize: bool) -> dict[str, float]:
-    text = Path(path).read_text(encoding="utf-8")
+    try:
+        text = Path(path).read_text(encoding="utf-8")
+    except (OSError, UnicodeDecodeError) as exc:
+        reason = exc.strerror if isinstance(exc, OSError) and exc.strerror else type(exc).__name__
+        msg = f"--rates {path}: cannot read the file ({reason}). Give a JSON file {{code: probability}}."
+        raise ValueError(msg) from None
     try:
         raw = json.loads(text)
     except json.JSONDecodeError as exc:

@@ -48,7 +48,7 @@ def data_path(tmp_path_factory):
 
 @pytest.fixture(scope="module")
 def n_rows(data_path):
-    """Rows kept at load (exact duplicate rows of the invented table are dropped)."""
+    """Rows kept at load (the invented table has no per-PA key, so repeated rows are kept)."""
     return load_pas(data_path).report.n_kept
 
 
@@ -93,6 +93,14 @@ def test_fit_reports_unusable_input_as_json_error(capsys, tmp_path):
     code, d = _run_json(capsys, "--data", tmp_path / "missing.parquet")
     assert code == 2
     assert "does not exist" in d["error"]
+
+
+@pytest.mark.parametrize("n_boot", ["0", "-3", "many"])
+def test_fit_refuses_a_bootstrap_without_replicates(capsys, data_path, n_boot):
+    # zero or negative replicates used to crash inside numpy's quantile with a traceback
+    with pytest.raises(SystemExit):
+        main(["fit", "--data", str(data_path), "--n-boot", n_boot, "--json"])
+    assert "--n-boot takes a whole number of bootstrap replicates >= 1" in capsys.readouterr().err
 
 
 def test_fit_text_output_is_readable(capsys, data_path):

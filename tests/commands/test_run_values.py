@@ -91,6 +91,7 @@ def test_normalize_rescales_rounded_rates(capsys, tmp_path):
 def test_missing_rates_file(capsys, tmp_path):
     code, d = _run_json(capsys, "--rates", tmp_path / "nope.json")
     assert code == 2 and "nope.json" in d["error"]
+    assert "cannot read the file (No such file or directory)" in d["error"]
 
 
 def _plays(n: int, seed: int, *, base_out: bool = True) -> pd.DataFrame:
