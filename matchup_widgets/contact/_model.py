@@ -235,6 +235,7 @@ class ContactModel:
 
     Examples
     --------
+    >>> import pandas as pd
     >>> rng = np.random.default_rng(0)
     >>> ev, la = rng.normal(88, 12, 2000), rng.normal(12, 25, 2000)
     >>> outcome = np.where(la < 10, "GB_OUT", np.where(ev > 100, "2B", "AIR_OUT"))
@@ -385,6 +386,7 @@ def contact_model_for(pas: Any, **params: Any) -> ContactModel:
 
     Examples
     --------
+    >>> import pandas as pd
     >>> rng = np.random.default_rng(1)
     >>> df = pd.DataFrame({"exit_velo": rng.normal(88, 12, 500),
     ...     "launch_angle": rng.normal(12, 25, 500), "outcome": ["1B", "GB_OUT"] * 250})
