@@ -361,7 +361,7 @@ class MatchupModel:
         if batter_hand is not None and batter_hand not in HANDS:
             msg = f"batter_hand must be 'L', 'R' or None (automatic); got {batter_hand!r}."
             raise ValueError(msg)
-        # the pitcher's hand: the one he threw with most; the batter's side follows from it
+        # the pitcher's hand: the hand of most of the pitcher's PAs; the batter's side follows from it
         p_hands = pcube.hand_totals(pitcher_id).sum(axis=0)
         ph = int(np.argmax(p_hands))
         b_sides = bcube.hand_totals(batter_id).sum(axis=1)

@@ -197,7 +197,7 @@ def test_suggested_priors_are_reported(fitted):
 
 
 def test_a_split_never_seen_gives_wide_intervals_not_false_precision(fitted):
-    # bat00 always bats L; asking for R is a what-if with no PAs of his own in that split.
+    # bat00 always bats L; asking for R is a what-if with no PAs of the batter's own in that split.
     raw = fitted.with_settings(batter_prior_pa=0, pitcher_prior_pa=0, pitcher_weight=0.0)
     unseen = raw.predict("bat00", "pit01", batter_hand="R")
     seen = raw.predict("bat00", "pit01")
