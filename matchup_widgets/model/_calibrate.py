@@ -416,6 +416,10 @@ def calibrate(
     if not 0.0 < float(interval_level) < 1.0:
         msg = f"interval_level must lie strictly between 0 and 1; got {interval_level}."
         raise ValueError(msg)
+    for name, value in (("n_boot", n_boot), ("n_bins", n_bins)):
+        if isinstance(value, bool) or not isinstance(value, (int, np.integer)) or value < 1:
+            msg = f"{name} must be a whole number >= 1; got {value!r}."
+            raise ValueError(msg)
     bp = _check_grid(priors if batter_priors is None else batter_priors, "batter_priors")
     pp = _check_grid(priors if pitcher_priors is None else pitcher_priors, "pitcher_priors")
     w_grid = _check_grid(weights, "weights", upper=1.0)

@@ -152,6 +152,11 @@ def test_bad_options_raise_with_advice(pas):
         calibrate(pas, basis="raw", progress=False)
     with pytest.raises(ValueError, match="holdout_share must lie strictly between 0 and 1"):
         calibrate(pas, holdout_share=0, progress=False)
+    # checked before any work (n_boot=0 used to fail deep inside with an IndexError)
+    with pytest.raises(ValueError, match="n_boot must be a whole number >= 1; got 0"):
+        calibrate(pas, n_boot=0, progress=False)
+    with pytest.raises(ValueError, match="n_bins must be a whole number >= 1; got 2.5"):
+        calibrate(pas, n_bins=2.5, progress=False)
 
 
 def test_fitted_settings_reproduce_the_matchup_model(pas, result):
