@@ -50,7 +50,8 @@ def empirical_bayes_prior(
     -------
     pandas.DataFrame
         Index: the outcome codes then ``"all"`` (the Dirichlet-multinomial fit). Columns:
-        ``prior_pa`` (``inf`` when players differ no more than chance allows), ``rho``
+        ``prior_pa`` (``inf`` when players differ no more than chance allows, 0 when the
+        moment estimate of ``rho`` reaches 1 and so calls for no pooling at all), ``rho``
         (share of variance between players), ``mean`` (pooled rate), ``n_players``, ``role``.
 
     Raises
@@ -111,7 +112,8 @@ def prior_from_counts(counts: np.ndarray, strata: np.ndarray, *, role: str, min_
         rho_all = (chi / k_minus_1 - dof) / d
     rho = np.append(rho, rho_all)
     with np.errstate(invalid="ignore", divide="ignore"):
-        prior = np.where(rho > 0, (1 - rho) / rho, np.inf)
+        # rho >= 1 (more spread than the model allows, possible with few players): no pooling
+        prior = np.where(rho > 0, np.maximum((1 - rho) / rho, 0.0), np.inf)
     mean = np.append(x_s.sum(axis=0) / n_s.sum(), np.nan)
     return pd.DataFrame(
         {

@@ -93,6 +93,15 @@ def test_platoon_splits_are_strata():
     assert pooled < 200
 
 
+def test_spread_beyond_the_model_suggests_no_pooling_not_a_negative_prior():
+    # Hand computation (closed form above): 0 and 100 strikeouts in 100 PA each. mu = 0.5,
+    # S / (mu (1 - mu)) = 100 * 0.25 * 2 / 0.25 = 200, J - 1 = 1, D = 99, rho = 199 / 99 > 1;
+    # (1 - rho) / rho would be -0.5025 PA, which is not a prior size: the answer is 0.
+    got = empirical_bayes_prior(_two_column(np.array([0, 100]), np.array([100, 100])))
+    assert_allclose(got.loc["K", "rho"], 199 / 99, rtol=1e-12)
+    assert got.loc["K", "prior_pa"] == 0.0
+
+
 def test_too_few_players_is_a_data_error():
     with pytest.raises(DataError, match=r"at least two batters with >= 10 plate appearances"):
         empirical_bayes_prior(_two_column(np.array([2, 3]), np.array([5, 50])))
