@@ -400,6 +400,15 @@ def calibrate(
     ValueError
         On a bad option.
 
+    Notes
+    -----
+    The linear blend's two weights sum to 1, so it already damps each side's deviation from
+    the league. When both sides are well measured and their effects add up (as under an
+    odds-ratio rule, where a strikeout pitcher and a strikeout batter compound), shrinkage
+    only damps them further and the best prior sizes are 0/0; the odds-ratio row of
+    ``methods`` then scores better with positive priors. Priors of 0 are a finding about
+    the linear blend, not a failure of the search.
+
     Examples
     --------
     >>> from matchup_widgets.data.demo import make_demo_league
