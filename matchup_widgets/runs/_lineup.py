@@ -7,6 +7,7 @@ from dataclasses import dataclass
 from typing import Any
 
 import numpy as np
+import pandas as pd
 
 from ._advancement import AdvancementTable
 from ._chain import _step, _table, as_probs, runs_distribution_matrix, solve_by_outs, split_by_runs
@@ -45,7 +46,15 @@ class LineupRuns:
 
 
 def _order(order_probs: Any, table: AdvancementTable) -> np.ndarray:
-    if isinstance(order_probs, (list, tuple)) and order_probs and isinstance(order_probs[0], dict):
+    # Labelled rows (dicts, Series, a DataFrame with code columns) are read by their labels,
+    # as run_expectancy reads them, never by position.
+    if isinstance(order_probs, pd.DataFrame):
+        order_probs = [row for _, row in order_probs.iterrows()]  # nine rows
+    if (
+        isinstance(order_probs, (list, tuple))
+        and order_probs
+        and all(isinstance(row, (dict, pd.Series)) for row in order_probs)
+    ):
         rows = [as_probs(row, table, name=f"order_probs[{i}]") for i, row in enumerate(order_probs)]
         p = np.stack(rows)
     else:
@@ -73,8 +82,9 @@ def lineup_runs(
 
     Parameters
     ----------
-    order_probs : array-like, shape (9, n_outcomes), or list of nine {code: p}
-        Each slot's outcome distribution against this pitcher, in batting order.
+    order_probs : array-like, shape (9, n_outcomes), list of nine {code: p} or Series, or DataFrame
+        Each slot's outcome distribution against this pitcher, in batting order; labelled
+        rows (mappings, Series, DataFrame columns) are read by their outcome codes.
     max_runs : int, default 15
         Last bin of ``runs_distribution``.
     advancement : AdvancementTable, optional
@@ -249,8 +259,8 @@ def simulate_games(
 
     Parameters
     ----------
-    order_probs : array-like, shape (9, n_outcomes), or list of nine {code: p}
-        Each slot's outcome distribution, in batting order.
+    order_probs : array-like, shape (9, n_outcomes), list of nine {code: p} or Series, or DataFrame
+        Each slot's outcome distribution, in batting order (labelled rows read by code).
     n_games : int
         Games played in parallel.
     innings : int, default 9

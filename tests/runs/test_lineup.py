@@ -66,3 +66,16 @@ def test_lineup_that_never_makes_an_out_and_bad_max_runs_are_refused():
         lineup_runs([{"BB": 1.0}] * 9)
     with pytest.raises(ValueError, match="max_runs must be a whole number >= 1"):
         lineup_runs([{"HR": 0.25, "K": 0.75}] * 9, max_runs=-1)
+
+
+def test_labelled_rows_are_read_by_their_codes(league_rates):
+    # A Series or DataFrame in another column order must give the same figure as the
+    # single-batter chain (reference: runs_per_9, which reads labels).
+    import pandas as pd
+
+    p = pd.Series(league_rates(2019), index=list(OUTCOMES))
+    shuffled = p[::-1]
+    ref = runs_per_9(p)
+    assert_allclose(lineup_runs([shuffled] * 9).runs_per_9, ref, rtol=1e-12)
+    assert_allclose(lineup_runs(pd.DataFrame([shuffled] * 9)).runs_per_9, ref, rtol=1e-12)
+    assert_allclose(simulate_games([shuffled] * 9, n_games=10, seed=1).shape, (10, 9))
