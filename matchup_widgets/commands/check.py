@@ -28,6 +28,13 @@ def register(subparsers: argparse._SubParsersAction) -> None:
     )
     p.add_argument("--table", metavar="NAME", help="table inside a .duckdb file holding several")
     p.add_argument("--strict", action="store_true", help="treat any dropped row or repaired value as an error")
+    p.add_argument(
+        "--duplicates",
+        choices=("auto", "drop", "keep"),
+        default="auto",
+        help="exact duplicate rows: drop them, keep them, or (auto) drop them only when the table has a "
+        "column that tells plate appearances apart (inning, outs_before, bases_before or an extra column)",
+    )
     p.add_argument("--batter", metavar="ID|NAME", help="also check that this batter is in the data")
     p.add_argument("--pitcher", metavar="ID|NAME", help="also check that this pitcher is in the data")
     p.add_argument(
@@ -77,6 +84,7 @@ def run(args: argparse.Namespace) -> int:
             table=args.table,
             strict=args.strict,
             outcome_map=_read_outcome_map(args.outcome_map),
+            drop_duplicates={"auto": None, "drop": True, "keep": False}[args.duplicates],
         )
     except DataError as exc:
         return fail(f"{args.path}: not usable. {exc}", as_json=args.json)

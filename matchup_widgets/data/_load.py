@@ -257,7 +257,7 @@ def load_pas(
     table: str | None = None,
     strict: bool = False,
     outcome_map: dict[str, str | None] | None = None,
-    drop_duplicates: bool = True,
+    drop_duplicates: bool | None = None,
 ) -> PlateAppearances:
     """Load and validate a plate-appearance table.
 
@@ -277,8 +277,13 @@ def load_pas(
     outcome_map : dict, optional
         ``{raw_code: code}`` for codes outside ``OUTCOMES``; a value of ``None``
         drops those rows with a count, e.g. ``{"SAC": None, "E": "GB_OUT"}``.
-    drop_duplicates : bool, default True
-        Drop exact duplicate rows (every input column equal) with a count.
+    drop_duplicates : bool or None, default None
+        Drop exact duplicate rows (every input column equal) with a count. None drops
+        them only when the table can tell plate appearances apart (it has ``inning``,
+        ``outs_before``, ``bases_before`` or a column outside the contract, such as an
+        event number); otherwise identical rows are real repeats as far as anyone can
+        tell (the same out against the same pitcher twice in a game), so they are kept
+        and counted in ``report.n_repeated_rows`` with a warning.
 
     Returns
     -------
@@ -307,8 +312,10 @@ def load_pas(
     ...     "pitcher_name": ["Cy Moss"] * 3, "batter_hand": ["L", "R", "R"],
     ...     "pitcher_hand": ["R"] * 3, "outcome": ["K", "HR", "HR"]})
     >>> pas = load_pas(df)
-    >>> pas.report.n_read, pas.report.n_kept, pas.report.dropped
-    (3, 2, {'duplicate row': 1})
+    >>> pas.report.n_read, pas.report.n_kept, pas.report.n_repeated_rows
+    (3, 3, 1)
+    >>> load_pas(df.assign(inning=[1, 3, 3])).report.dropped
+    {'duplicate row': 1}
     >>> pas.seasons
     [2031]
     """

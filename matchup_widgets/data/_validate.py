@@ -18,7 +18,8 @@ Unusable, raise :class:`DataError` (all problems found are listed in one paragra
 Dropped, with a count per reason in the report:
     rows with no ``game_id``, ``game_date``, ``batter_id``, ``pitcher_id`` or
     ``outcome``; rows whose outcome code ``outcome_map`` sends to ``None``; exact
-    duplicate rows (every input column equal), first copy kept.
+    duplicate rows (every input column equal), first copy kept, when the table can tell
+    plate appearances apart (see below).
 Repaired, with a count and a warning:
     ``exit_velo`` outside 0-130 mph or ``launch_angle`` outside -90..90 degrees (or
     text that is not a number) is set to missing, the plate appearance is kept;
@@ -32,8 +33,15 @@ Normalised silently:
 With ``strict=True`` every drop and every repair is an error instead.
 
 Duplicates are judged on every input column, mapped or not: a per-plate-appearance key
-(an event number) keeps two identical-looking plate appearances apart. On DuckDB a
-64-bit row hash screens for duplicates first, so clean data skips the DISTINCT.
+(an event number) keeps two identical-looking plate appearances apart. A table with only
+the contract's other columns cannot tell a copied row from a real repeat (a batter who
+grounds out twice against the same starter in one game writes two identical rows; about
+one row in ten of a full season), and dropping those would bias every rate toward the
+rarer outcomes. So by default (``drop_duplicates=None``) exact duplicates are dropped only
+when the table has ``inning``, ``outs_before``, ``bases_before`` or a column outside the
+contract; otherwise they are kept, counted (``n_repeated_rows``) and named in a warning.
+``True`` or ``False`` decide either way. On DuckDB a 64-bit row hash screens for
+duplicates first, so clean data skips the DISTINCT.
 Engines without a lenient cast (polars) parse text dates strictly; a bad date then
 fails in the engine and :func:`load_pas` reports it as a :class:`DataError`.
 """
@@ -77,6 +85,9 @@ _FLOAT_RANGES: dict[str, tuple[float, float]] = {
 _KEY_COLUMNS: tuple[str, ...] = ("game_id", "game_date", "batter_id", "pitcher_id", "outcome")
 _TEXT_COLUMNS: tuple[str, ...] = ("game_id", "batter_id", "pitcher_id", "batter_name", "pitcher_name")
 _N_EXAMPLES = 5
+# Contract columns that tell two plate appearances of one batter against one pitcher in
+# one game apart (any column outside the contract is taken to do so as well).
+_PA_KEY_COLUMNS: tuple[str, ...] = ("inning", "outs_before", "bases_before")
 
 
 @dataclass
@@ -101,6 +112,9 @@ class ValidationReport:
         Values set to missing or filled in, per reason.
     n_batted_without_exit_velo : int
         Kept batted-ball plate appearances with no exit velocity (allowed).
+    n_repeated_rows : int
+        Rows identical to an earlier row that were kept, because the table has no column
+        that tells plate appearances apart (``drop_duplicates=None``).
     columns : list of str
         Columns of the validated table.
     source : str
@@ -123,6 +137,7 @@ class ValidationReport:
     has_base_out: bool = False
     set_missing: dict[str, int] = field(default_factory=dict)
     n_batted_without_exit_velo: int = 0
+    n_repeated_rows: int = 0
     columns: list[str] = field(default_factory=list)
     source: str = ""
 
@@ -164,6 +179,7 @@ class _Checked:
     n_kept: int | None  # None: duplicates were removed, count the final table
     n_ev: int
     n_batted_no_ev: int
+    n_repeated: int = 0  # identical rows kept (a table with no per-plate-appearance key)
 
 
 @ibis.udf.scalar.builtin(name="hash")
@@ -326,7 +342,7 @@ def check_table(
     *,
     outcome_map: dict | None = None,
     strict: bool = False,
-    drop_duplicates: bool = True,
+    drop_duplicates: bool | None = None,
 ) -> _Checked:
     """Validate an ibis table already renamed to the contract; see the module policy.
 
@@ -335,6 +351,11 @@ def check_table(
     """
     columns = list(raw.columns)
     check_columns(columns)
+    contract = set(REQUIRED_COLUMNS) | set(OPTIONAL_COLUMNS)
+    keyed = any(c in _PA_KEY_COLUMNS or c not in contract for c in columns)
+    drop = keyed if drop_duplicates is None else bool(drop_duplicates)
+    # with the default on a key-less table, identical rows are kept but still counted
+    screen = drop or drop_duplicates is None
     schema = raw.schema()
     kinds = {c: _dtype_kind(schema[c]) for c in columns}
     codes_map = _normalise_outcome_map(outcome_map)
@@ -494,7 +515,7 @@ def check_table(
     if "exit_velo" in out:
         flags["has_ev"] = out["exit_velo"].notnull()
         flags["batted_no_ev"] = code.isin(list(BATTED)) & out["exit_velo"].isnull()
-    if drop_duplicates and raw.get_backend().name == "duckdb":
+    if screen and raw.get_backend().name == "duckdb":
         # Screening for exact duplicates with a 64-bit row hash: equal rows always hash
         # equal, so "no duplicates" is exact; a collision only triggers the exact DISTINCT.
         flags["row_hash"] = _duckdb_hash(ibis.struct({c: raw[c] for c in columns}))
@@ -607,7 +628,8 @@ def check_table(
     final_cols = [c for c in REQUIRED_COLUMNS if c != "game_date"]
     final_cols = ["game_id", "game_date", "season"] + [c for c in final_cols if c != "game_id"]
     final_cols += [c for c in OPTIONAL_COLUMNS if c in out and c != "season"]
-    dedupe = drop_duplicates and counts.get("n_distinct_hash", -1) != n_before_dedupe
+    maybe_repeats = screen and counts.get("n_distinct_hash", -1) != n_before_dedupe
+    dedupe = drop and maybe_repeats
     # Extra input columns ride along until duplicates are judged on the whole input row.
     extras = [c for c in columns if c not in out] if dedupe else []
     selected = raw.select(
@@ -620,6 +642,17 @@ def check_table(
     if dedupe:
         selected = selected.distinct()
     clean = selected.select(*final_cols)
+    n_repeated = 0
+    if maybe_repeats and not drop:
+        n_repeated = n_before_dedupe - int(clean.distinct().count().to_pyarrow().as_py())
+        if n_repeated:
+            warnings.append(
+                f"{n_repeated:,} {'row repeats' if n_repeated == 1 else 'rows repeat'} an earlier row exactly and "
+                "are kept: with no column that "
+                "tells plate appearances apart (inning, outs_before, bases_before or an event number), they "
+                "read as real repeats (the same batter making the same out against the same pitcher twice "
+                "in a game). If the table holds copied rows, load with drop_duplicates=True."
+            )
     return _Checked(
         table=clean,
         n_read=n_read,
@@ -630,6 +663,7 @@ def check_table(
         n_kept=None if dedupe else n_before_dedupe,
         n_ev=counts.get("n_ev", 0),
         n_batted_no_ev=counts.get("n_batted_no_ev", 0),
+        n_repeated=n_repeated,
     )
 
 
@@ -675,6 +709,7 @@ def finish_report(checked: _Checked, table: ir.Table, *, source: str = "", stric
         has_base_out=all(c in columns for c in BASE_OUT_COLUMNS),
         set_missing=dict(checked.set_missing),
         n_batted_without_exit_velo=n_batted_no_ev if has_ev else 0,
+        n_repeated_rows=checked.n_repeated,
         columns=columns,
         source=source,
     )

@@ -107,6 +107,19 @@ def test_out_of_range_contact_and_duplicates_are_usable_with_counts(tmp_path, ca
     assert report["n_batted_without_exit_velo"] == 2  # the one set missing and the one left blank
 
 
+def test_repeated_rows_without_a_key_are_kept_unless_asked(tmp_path, capsys):
+    # no inning/outs/bases column: a repeated row may be a real repeated plate appearance
+    df = _frame().drop(columns=["outs_before", "bases_before"])
+    path = _write(pd.concat([df, df.iloc[[0, 5]]], ignore_index=True), tmp_path / "keyless.csv")
+    code, out, _ = _run(capsys, path, "--json")
+    report = json.loads(out)
+    assert code == 0 and (report["n_kept"], report["n_repeated_rows"], report["dropped"]) == (10, 2, {})
+    code, out, _ = _run(capsys, path, "--duplicates", "drop", "--json")
+    assert code == 0 and json.loads(out)["dropped"] == {"duplicate row": 2}
+    code, out, _ = _run(capsys, path, "--duplicates", "keep", "--json")
+    assert code == 0 and json.loads(out)["n_repeated_rows"] == 0 and json.loads(out)["n_kept"] == 10
+
+
 def test_zero_pa_in_a_requested_split_exits_2(tmp_path, capsys):
     path = _write(_frame(), tmp_path / "pas.csv")
     code, out, _ = _run(capsys, path, "--batter", "Ada Quill", "--split", "L-R")

@@ -178,6 +178,28 @@ def test_exact_duplicate_rows_are_dropped_with_a_count():
     assert load_pas(doubled, drop_duplicates=False).report.n_kept == 11
 
 
+def test_repeats_in_a_table_with_no_plate_appearance_key_are_kept_and_counted():
+    # Only the contract's required columns: a batter who grounds out twice against the same
+    # pitcher in one game writes two identical rows, so they are plate appearances, not copies.
+    import ibis
+
+    df = _frame(contact=False).drop(columns="inning")
+    repeated = pd.concat([df, df.iloc[[3, 3, 6]]], ignore_index=True)  # 11 rows, 3 repeats
+    on_duckdb = load_pas(repeated)
+    on_polars = load_pas(ibis.polars.connect().create_table("pas", ibis.memtable(repeated)))
+    for pas in (on_duckdb, on_polars):
+        r = pas.report
+        assert (r.n_read, r.n_kept, r.dropped, r.n_repeated_rows) == (11, 11, {}, 3)
+        assert any("3 rows repeat an earlier row exactly and are kept" in w for w in r.warnings)
+        # every row counts: the outcome shares are the input's own (hand count: pandas value_counts)
+        got = pas.frame["outcome"].value_counts().sort_index()
+        pd.testing.assert_series_equal(got, repeated["outcome"].value_counts().sort_index(), check_dtype=False)
+    # asked for, the copies go with a count; with a key column the default drops them
+    assert load_pas(repeated, drop_duplicates=True).report.dropped == {"duplicate row": 3}
+    assert load_pas(repeated.assign(inning=1)).report.dropped == {"duplicate row": 3}
+    assert load_pas(df).report.n_repeated_rows == 0
+
+
 def test_rows_differing_in_an_extra_column_are_not_duplicates():
     df = pd.concat([_frame(), _frame().iloc[[1]]], ignore_index=True)
     df["event_no"] = range(len(df))  # a per-plate-appearance key the contract does not name
