@@ -28,6 +28,8 @@ from ._schema import OPTIONAL_COLUMNS, REQUIRED_COLUMNS
 from ._validate import ValidationReport, check_table, finish_report
 
 _CONTRACT = set(REQUIRED_COLUMNS) | set(OPTIONAL_COLUMNS)
+#: The plate-appearance file inside a folder written by ``demo-data`` (beside players and teams).
+_PAS_FILE = "plate_appearances.parquet"
 _FILE_KINDS = {".csv": "csv", ".tsv": "csv", ".txt": "csv", ".parquet": "parquet", ".pq": "parquet",
                ".duckdb": "duckdb", ".ddb": "duckdb", ".db": "duckdb"}
 
@@ -159,6 +161,16 @@ def _engine_error(what: str, exc: Exception) -> DataError:
     return DataError(msg)
 
 
+def _parquet_columns(path: Path) -> frozenset[str] | None:
+    """The column names of a Parquet file (None when its footer cannot be read)."""
+    import pyarrow.parquet as pq
+
+    try:
+        return frozenset(pq.read_schema(path).names)
+    except Exception:  # unreadable: the engine's read reports it with its own words
+        return None
+
+
 def _open_file(path: Path, table: str | None) -> tuple[ir.Table, str]:
     """Read a file on a new in-memory DuckDB connection (files are only read)."""
     if not path.exists():
@@ -168,6 +180,17 @@ def _open_file(path: Path, table: str | None) -> tuple[ir.Table, str]:
         parquet = sorted(path.glob("*.parquet"))
         if not parquet:
             msg = f"{str(path)!r} is a folder with no .parquet files. Give a file path."
+            raise DataError(msg)
+        if (path / _PAS_FILE).is_file():
+            # the layout demo-data writes: the plate appearances beside the players and teams
+            path = path / _PAS_FILE
+        elif len({_parquet_columns(f) for f in parquet}) > 1:
+            shown = ", ".join(f.name for f in parquet[:5])
+            msg = (
+                f"The Parquet files in folder {str(path)!r} ({shown}) do not share one set of columns, so they "
+                "are not parts of one plate-appearance table. Give the path of the file that holds the plate "
+                f"appearances (or name it {_PAS_FILE})."
+            )
             raise DataError(msg)
         kind = "parquet"
     else:

@@ -67,6 +67,24 @@ def test_parquet_is_read_in_place_and_not_written(tmp_path):
     assert _fingerprint(path) == before
 
 
+def test_parquet_folders_parts_or_the_demo_layout(tmp_path):
+    df = _frame()
+    parts = tmp_path / "parts"
+    parts.mkdir()
+    df.iloc[:3].to_parquet(parts / "a.parquet")
+    df.iloc[3:].to_parquet(parts / "b.parquet")
+    _expect_frame(load_pas(parts))  # parts of one table are read together
+    # the layout demo-data writes: plate appearances beside tables of other columns
+    league = tmp_path / "league"
+    league.mkdir()
+    df.to_parquet(league / "plate_appearances.parquet")
+    df[["batter_id", "batter_name"]].to_parquet(league / "players.parquet")
+    _expect_frame(load_pas(league))
+    (league / "plate_appearances.parquet").rename(league / "pas.parquet")
+    with pytest.raises(DataError, match=r"do not share one set of columns.*Give the path of the file"):
+        load_pas(league)
+
+
 def test_duckdb_file_is_attached_read_only(tmp_path):
     path = tmp_path / "league.duckdb"
     con = duckdb.connect(str(path))
