@@ -91,6 +91,9 @@ def run(args: argparse.Namespace) -> int:
     try:
         players: dict[str, dict] = {}
         split = _parse_split(args.split) if args.split else None
+        if split is not None and args.batter is None and args.pitcher is None:
+            msg = "--split checks a player's plate appearances in that split; give --batter or --pitcher with it."
+            raise DataError(msg)
         for role, query in (("batter", args.batter), ("pitcher", args.pitcher)):
             if query is None:
                 continue

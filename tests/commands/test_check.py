@@ -130,6 +130,9 @@ def test_zero_pa_in_a_requested_split_exits_2(tmp_path, capsys):
     assert "Splits with plate appearances: L vs R (4 PA)" in err
     code, _, err = _run(capsys, path, "--pitcher", "Nobody Here")
     assert code == 2 and "No pitcher matches 'Nobody Here'" in err
+    # a split with no player to check used to be ignored silently
+    code, _, err = _run(capsys, path, "--split", "L-R")
+    assert code == 2 and "give --batter or --pitcher with it" in err
     code, _, err = _run(capsys, path, "--batter", "b1", "--split", "sideways")
     assert code == 2 and "is not a platoon split" in err
 
