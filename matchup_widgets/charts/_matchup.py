@@ -25,6 +25,14 @@ from ._theme import (
 )
 
 
+#: Vega expression that breaks a multi-word axis label at its last space: "Ground-ball out"
+#: and "Home run" are wider than their band once nine outcomes share 600 px, and ran together.
+TWO_LINE_LABEL = (
+    "indexof(datum.label, ' ') < 0 ? datum.label : "
+    "[slice(datum.label, 0, lastindexof(datum.label, ' ')), slice(datum.label, lastindexof(datum.label, ' ') + 1)]"
+)
+
+
 def _with_side_labels(table: pd.DataFrame, order: tuple[str, ...] = SIDES) -> tuple[pd.DataFrame, list[str]]:
     """Copy ``table`` with a ``side_label`` column; return it and the sides present, in order."""
     out = table.copy()
@@ -89,7 +97,10 @@ def outcome_bars_chart(
     data, (label_order, sides) = _outcome_bars_data(table)
     side_order = [side_label(s) for s in sides]
     base = alt.Chart(data).encode(
-        x=alt.X("outcome_label:N", sort=list(label_order), title="Outcome", axis=alt.Axis(labelAngle=0)),
+        x=alt.X(
+            "outcome_label:N", sort=list(label_order), title="Outcome",
+            axis=alt.Axis(labelAngle=0, labelExpr=TWO_LINE_LABEL),
+        ),
         xOffset=alt.XOffset("side_label:N", sort=side_order),
     )
     bars = base.mark_bar().encode(

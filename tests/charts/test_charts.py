@@ -151,3 +151,17 @@ def test_chart_rows_are_the_rows_the_builder_embeds(builder, table):
     other[num] = other[num] * 0.5
     assert chart_rows(builder, other)[1] == key
     assert chart_rows(builder, other)[0] != rows
+
+
+def test_multi_word_outcome_labels_break_onto_two_lines():
+    # at the card's 580 px, "Home run" and "Ground-ball out" ran into each other on one line
+    import re
+
+    import vl_convert as vlc
+
+    spec = outcome_bars_chart(_bars_table(), width=580).to_dict()
+    svg = vlc.vegalite_to_svg(spec)
+    assert "<tspan>Ground-ball</tspan><tspan" in svg and ">out</tspan>" in svg
+    assert "<tspan>Home</tspan><tspan" in svg
+    one_line = re.findall(r'opacity="1">(Strikeout|Walk|Single)</text>', svg)
+    assert sorted(set(one_line)) == ["Single", "Strikeout", "Walk"]  # one-word labels stay whole
