@@ -128,6 +128,9 @@ def run(args: argparse.Namespace) -> int:
             if args.advancement == "data":
                 msg = "--advancement data needs --data (a rates file has no base-out columns)."
                 raise ValueError(msg)
+            if args.seasons:
+                msg = "--seasons picks seasons of --data; a rates file has none. Leave --seasons out."
+                raise ValueError(msg)
             rates = _read_rates(args.rates, normalize=args.normalize)
             table, info = None, {"source": "default"}
             try:

@@ -56,6 +56,19 @@ def test_rates_file_gives_the_contract_keys(capsys, rates_file):
     assert d["advancement"]["source"] == "default"
 
 
+def test_walk_or_out_batter_scores_the_closed_form(capsys, tmp_path):
+    # A batter who walks with probability 1/2 and otherwise strikes out scores 0.9375 runs
+    # per inning from empty bases, none out (closed form of the chain, stated in the runs issue).
+    path = tmp_path / "half.json"
+    path.write_text(json.dumps({"K": 0.5, "BB": 0.5}))
+    code, d = _run_json(capsys, "--rates", path)
+    assert code == 0
+    assert d["run_expectancy"][0][0] == pytest.approx(0.9375, abs=1e-6)
+    assert d["runs_per_inning"] == pytest.approx(0.9375, abs=1e-6)
+    code, d = _run_json(capsys, "--rates", path, "--seasons", 2031, 2031)
+    assert code == 2 and "a rates file has none" in d["error"]
+
+
 def test_text_output_for_people(capsys, rates_file):
     assert main(["run-values", "--rates", str(rates_file)]) == 0
     out = capsys.readouterr().out
