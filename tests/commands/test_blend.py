@@ -6,6 +6,7 @@ import json
 import subprocess
 import sys
 
+import pandas as pd
 import pytest
 
 from matchup_widgets.cli import main
@@ -74,6 +75,39 @@ def test_ambiguous_and_unknown_names_fail_with_matches(demo, capsys):
     code, out = _run(capsys, "--data", demo, "--batter", "Yarton Zolstovrd", "--pitcher", "p0001", "--json")
     assert code == 2
     assert "Closest names" in json.loads(out)["error"]
+
+
+def _side(player: str, other: str, role: str, counts: dict[str, int]) -> pd.DataFrame:
+    """100 plate appearances of ``player`` (in ``role``) against ``other``, with these outcome counts."""
+    outcomes = [code for code, n in counts.items() for _ in range(n)]
+    n = len(outcomes)
+    batter, pitcher = (player, other) if role == "batter" else (other, player)
+    return pd.DataFrame({
+        "game_id": [f"{player}-g{i // 4}" for i in range(n)], "game_date": ["2031-05-01"] * n,
+        "batter_id": [batter] * n, "pitcher_id": [pitcher] * n,
+        "batter_name": [f"Name {batter}"] * n, "pitcher_name": [f"Name {pitcher}"] * n,
+        "batter_hand": ["R"] * n, "pitcher_hand": ["R"] * n, "outcome": outcomes,
+    })
+
+
+def test_raw_linear_blend_gives_the_worked_example(tmp_path, capsys):
+    # Linear blend at w = 0.5 of a batter with singles 11% and strikeouts 16% and a pitcher
+    # with singles 6% and strikeouts 32%: singles 8.5%, strikeouts 24% (common practice figures).
+    # The table has only the contract's required columns, so its many identical rows are
+    # real plate appearances and must all count.
+    table = pd.concat([
+        _side("b1", "p9", "batter", {"1B": 11, "K": 16, "GB_OUT": 73}),
+        _side("p1", "b9", "pitcher", {"1B": 6, "K": 32, "GB_OUT": 62}),
+    ])
+    path = tmp_path / "pas.csv"
+    table.to_csv(path, index=False)
+    code, out = _run(capsys, "--data", str(path), "--batter", "b1", "--pitcher", "p1", "--batter-prior", "0",
+                     "--pitcher-prior", "0", "--pitcher-weight", "0.5", "--json")
+    assert code == 0
+    d = json.loads(out)
+    assert d["pa"] == {"batter": 100, "pitcher": 100}
+    assert d["probabilities"]["1B"] == pytest.approx(0.085, abs=1e-12)
+    assert d["probabilities"]["K"] == pytest.approx(0.24, abs=1e-12)
 
 
 def test_bad_weight_is_refused_by_the_parser(demo):
