@@ -233,6 +233,25 @@ def _settings_line(s: Mapping[str, Any]) -> str:
     )
 
 
+#: A side with fewer plate appearances than this in the split gets a plain sample-size note.
+#: Our display rule, not a statistic: below it the league prior carries much of the estimate.
+SMALL_SAMPLE_PA = 150
+
+
+def sample_notes(estimate: Any, *, small: int = SMALL_SAMPLE_PA) -> list[str]:
+    """Plain sentences for sides with few plate appearances in the split."""
+    notes = []
+    for role, name in (("batter", estimate.batter_name), ("pitcher", estimate.pitcher_name)):
+        n = float(estimate.pa[role])
+        if n < small:
+            prior = float(estimate.settings.get(f"{role}_prior_pa", 0.0))
+            notes.append(
+                f"Small sample: {name} has only {n:,.0f} PA in the {estimate.split} split, so the "
+                f"league average (prior of {prior:,.0f} PA) carries much of the {role}'s side."
+            )
+    return notes
+
+
 def card_tables(estimate: Any) -> dict[str, pd.DataFrame]:
     """The numbers behind a matchup card (also its CSV export).
 
@@ -350,6 +369,7 @@ def matchup_card(estimate: Any, *, width: int = 640) -> tuple[alt.TopLevelMixin,
             f"pitcher throws {estimate.pitcher_hand}"
         ),
         lines=lines,
+        notes=sample_notes(estimate),  # the explorer's small-sample warning goes on the card too
         numbers=numbers,
         caution=CARD_CAUTION,
         width=width,

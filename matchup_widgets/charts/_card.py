@@ -6,6 +6,7 @@ the settings, sample sizes and intervals, not only the HTML page.
 
 from __future__ import annotations
 
+import textwrap
 from collections.abc import Sequence
 
 import altair as alt
@@ -16,6 +17,19 @@ from ._tables import require_columns
 from ._theme import FONT, INK, MUTED, WARNING, style
 
 _LINE_PX = 18
+#: Average width of a character of 12 px sans-serif text, to wrap lines at the card's width.
+_CHAR_PX = 6.6
+
+
+def _wrap(lines: Sequence[str], chars: int) -> list[str]:
+    """Break each line at spaces into pieces of at most ``chars`` characters.
+
+    Examples
+    --------
+    >>> _wrap(["one two three", "four"], 8)
+    ['one two', 'three', 'four']
+    """
+    return [piece for line in lines for piece in (textwrap.wrap(line, chars) or [""])]
 
 
 def _text_block(lines: Sequence[str], *, width: int, color: str = INK, size: int = 12, bold: bool = False) -> alt.Chart:
@@ -36,6 +50,7 @@ def matchup_card_chart(
     title: str,
     subtitle: str = "",
     lines: Sequence[str] = (),
+    notes: Sequence[str] = (),
     numbers: Sequence[str] = (),
     caution: str,
     width: int = 640,
@@ -51,6 +66,8 @@ def matchup_card_chart(
         The matchup ("batter vs pitcher") and the platoon split.
     lines : sequence of str
         Facts under the title: settings, plate-appearance counts, wOBA and runs.
+    notes : sequence of str
+        Warnings printed in the warning colour under the facts (e.g. a small sample).
     numbers : sequence of str
         The probabilities with their intervals, one outcome per line.
     caution : str
@@ -75,7 +92,12 @@ def matchup_card_chart(
     bars = outcome_bars_chart(outcomes, width=width - 60, height=200, title="Outcome shares per plate appearance")
     bars = bars.copy()
     bars.config = alt.Undefined  # the card is styled once, at the top
-    parts: list[alt.TopLevelMixin] = [_text_block(lines, width=width), bars]
+    # long facts wrap at the card's width instead of stretching the card to twice its size
+    chars = max(40, int(width / _CHAR_PX))
+    parts: list[alt.TopLevelMixin] = [_text_block(_wrap(lines, chars), width=width)]
+    if notes:
+        parts.append(_text_block(_wrap(notes, chars), width=width, color=WARNING))
+    parts.append(bars)
     if numbers:
         half = (len(numbers) + 1) // 2
         parts.append(

@@ -11,10 +11,8 @@ import pandas as pd
 
 from matchup_widgets.charts._theme import CAUTION, INK, MUTED, SIDE_COLORS, WARNING, side_label
 from matchup_widgets.data import OUTCOMES
+from matchup_widgets.export import SMALL_SAMPLE_PA, sample_notes  # noqa: F401 - shared with the card
 
-#: A side with fewer plate appearances than this in the split gets a plain sample-size note.
-#: Our display rule, not a statistic: below it the league prior carries much of the estimate.
-SMALL_SAMPLE_PA = 150
 
 _SIDES = ("batter", "pitcher", "league", "matchup")
 _HEAD_ORDER = ("matchup", "batter", "pitcher", "league")
@@ -132,20 +130,6 @@ _ROWS = (
     ("wOBA", "woba", _woba),
     ("Runs per PA vs league average", "runs_per_pa", _runs),
 )
-
-
-def sample_notes(estimate: Any, *, small: int = SMALL_SAMPLE_PA) -> list[str]:
-    """Plain sentences for sides with few plate appearances in the split."""
-    notes = []
-    for role, name in (("batter", estimate.batter_name), ("pitcher", estimate.pitcher_name)):
-        n = float(estimate.pa[role])
-        if n < small:
-            prior = float(estimate.settings.get(f"{role}_prior_pa", 0.0))
-            notes.append(
-                f"Small sample: {name} has only {n:,.0f} PA in the {estimate.split} split, so the "
-                f"league average (prior of {prior:,.0f} PA) carries much of the {role}'s side."
-            )
-    return notes
 
 
 def headline_html(estimate: Any) -> str:
