@@ -5,6 +5,8 @@ from __future__ import annotations
 import argparse
 from typing import Any
 
+from ._data_options import add_data_options, load_data
+
 _METHODS = ("linear", "odds-ratio", "two-stage")
 
 
@@ -31,8 +33,9 @@ def _pa(text: str) -> float:
 
 
 def add_matchup_options(p: argparse.ArgumentParser) -> None:
-    """Add --data, --batter, --pitcher and the model settings options to ``p``."""
+    """Add --data (with --mapping, --outcome-map), --batter, --pitcher and the model settings to ``p``."""
     p.add_argument("--data", required=True, metavar="PATH", help="plate-appearance file (Parquet or CSV)")
+    add_data_options(p)
     p.add_argument("--batter", required=True, metavar="ID|NAME", help="batter id, full name or unique part of it")
     p.add_argument("--pitcher", required=True, metavar="ID|NAME", help="pitcher id, full name or unique part of it")
     p.add_argument("--pitcher-weight", type=_unit_float, default=0.5, metavar="W",
@@ -60,10 +63,10 @@ def estimate_matchup(args: argparse.Namespace) -> Any:
     Names are resolved before the counts are aggregated, so a typo fails fast. Raises the
     core's ``DataError``/``ValueError`` for the caller to report.
     """
-    from matchup_widgets.data import load_pas, resolve_player
+    from matchup_widgets.data import resolve_player
     from matchup_widgets.model import MatchupModel
 
-    pas = load_pas(args.data)
+    pas = load_data(args, args.data)
     batter = resolve_player(pas, args.batter, role="batter")
     pitcher = resolve_player(pas, args.pitcher, role="pitcher")
     model = MatchupModel(

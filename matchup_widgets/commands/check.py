@@ -6,7 +6,8 @@ Exit status 0 when the data is usable, 2 (with a one-paragraph reason) when it i
 from __future__ import annotations
 
 import argparse
-import json
+
+from ._data_options import add_data_options, read_outcome_map
 
 
 def register(subparsers: argparse._SubParsersAction) -> None:
@@ -20,12 +21,7 @@ def register(subparsers: argparse._SubParsersAction) -> None:
         ),
     )
     p.add_argument("path", metavar="PATH", help="a .csv, .parquet or .duckdb file")
-    p.add_argument("--mapping", metavar="FILE", help="JSON file {their_column: our_column}")
-    p.add_argument(
-        "--outcome-map",
-        metavar="FILE",
-        help='JSON file {raw_code: code or null}, e.g. {"SAC": null, "E": "GB_OUT"}; null drops those rows',
-    )
+    add_data_options(p)
     p.add_argument("--table", metavar="NAME", help="table inside a .duckdb file holding several")
     p.add_argument("--strict", action="store_true", help="treat any dropped row or repaired value as an error")
     p.add_argument(
@@ -45,20 +41,6 @@ def register(subparsers: argparse._SubParsersAction) -> None:
     )
     p.add_argument("--json", action="store_true", help="print one JSON object")
     p.set_defaults(func=run)
-
-
-def _read_outcome_map(path: str | None) -> dict | None:
-    from matchup_widgets.data import DataError
-
-    if path is None:
-        return None
-    try:
-        with open(path, encoding="utf-8") as fh:
-            value = json.load(fh)
-    except (OSError, UnicodeDecodeError, json.JSONDecodeError) as exc:
-        msg = f"Outcome map {path!r} is not a readable JSON file ({exc}). It should hold {{raw_code: code or null}}."
-        raise DataError(msg) from None
-    return value
 
 
 def _parse_split(text: str) -> tuple[str, str]:
@@ -83,7 +65,7 @@ def run(args: argparse.Namespace) -> int:
             mapping=args.mapping,
             table=args.table,
             strict=args.strict,
-            outcome_map=_read_outcome_map(args.outcome_map),
+            outcome_map=read_outcome_map(args.outcome_map),
             drop_duplicates={"auto": None, "drop": True, "keep": False}[args.duplicates],
         )
     except DataError as exc:

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import argparse
 
+from ._data_options import add_data_options, load_data
 from ._output import emit, fail
 
 _METHODS = ("linear", "odds-ratio", "two-stage")
@@ -44,10 +45,11 @@ def register(subparsers: argparse._SubParsersAction) -> None:
         ),
     )
     p.add_argument("--data", required=True, metavar="PATH", help="plate-appearance file to fit on")
+    add_data_options(p)
     where = p.add_mutually_exclusive_group()
     where.add_argument("--holdout-share", type=float, default=0.25, metavar="SHARE",
                        help="share of whole games held out for scoring (default 0.25)")
-    where.add_argument("--score", metavar="PATH", help="separate plate-appearance file to score on")
+    where.add_argument("--score", metavar="PATH", help="separate plate-appearance file to score on (read with the same --mapping)")
     where.add_argument("--season-forward", action="store_true",
                        help="fit on the earlier seasons, score on the last one")
     p.add_argument("--seed", type=int, default=0, help="seed of the game split and the bootstrap (default 0)")
@@ -83,12 +85,12 @@ def _text(d: dict) -> str:
 
 def run(args: argparse.Namespace) -> int:
     """Run ``fit``; return the exit code (0 fitted, 2 unusable input)."""
-    from ..data import DataError, load_pas
+    from ..data import DataError
     from ..model import DEFAULT_PRIOR_GRID, calibrate
 
     try:
-        pas = load_pas(args.data)
-        score = load_pas(args.score) if args.score else None
+        pas = load_data(args, args.data)
+        score = load_data(args, args.score) if args.score else None
         result = calibrate(
             pas,
             holdout_share=args.holdout_share,

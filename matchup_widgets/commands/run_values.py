@@ -7,6 +7,7 @@ import json
 from pathlib import Path
 from typing import Any
 
+from ._data_options import add_data_options, load_data
 from ._output import emit, fail
 
 
@@ -26,6 +27,7 @@ def register(subparsers: argparse._SubParsersAction) -> None:
     src.add_argument("--rates", metavar="FILE.json",
                      help='JSON object {code: probability} over K, BB, HBP, 1B, 2B, 3B, HR, GB_OUT, AIR_OUT')
     src.add_argument("--data", metavar="PATH", help="plate-appearance file (.parquet, .csv, .duckdb)")
+    add_data_options(p)
     p.add_argument("--seasons", type=int, nargs=2, metavar=("FIRST", "LAST"),
                    help="with --data: only these seasons (inclusive)")
     p.add_argument("--advancement", choices=("auto", "default", "data"), default="auto",
@@ -69,10 +71,10 @@ def _read_rates(path: str, *, normalize: bool) -> dict[str, float]:
 
 
 def _league_from_data(args: argparse.Namespace) -> tuple[dict[str, float], Any, dict[str, Any]]:
-    from ..data import BASE_OUT_COLUMNS, OUTCOMES, as_table, league_counts, load_pas
+    from ..data import BASE_OUT_COLUMNS, OUTCOMES, as_table, league_counts
     from ..runs import estimate_advancement
 
-    pas = load_pas(args.data)
+    pas = load_data(args, args.data)
     seasons = tuple(args.seasons) if args.seasons else None
     counts = league_counts(pas, seasons=seasons)
     totals = counts[list(OUTCOMES)].sum()
