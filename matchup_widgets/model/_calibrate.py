@@ -267,7 +267,7 @@ def _check_no_shared_games(fit_frame: pd.DataFrame, score_frame: pd.DataFrame) -
     keys = ["game_id", "game_date"]
 
     def games(frame: pd.DataFrame) -> pd.MultiIndex:
-        return pd.MultiIndex.from_frame(frame[keys].astype(str)).unique()
+        return pd.MultiIndex.from_frame(frame[keys].drop_duplicates().astype(str))
 
     shared = games(score_frame).intersection(games(fit_frame))
     if len(shared):
