@@ -630,8 +630,9 @@ def check_table(
     final_cols += [c for c in OPTIONAL_COLUMNS if c in out and c != "season"]
     maybe_repeats = screen and counts.get("n_distinct_hash", -1) != n_before_dedupe
     dedupe = drop and maybe_repeats
-    # Extra input columns ride along until duplicates are judged on the whole input row.
-    extras = [c for c in columns if c not in out] if dedupe else []
+    # Every input column rides along, as read, until duplicates are judged on the whole input
+    # row: rows that differ only before normalising (" l" and "L") are not copies.
+    extras = list(columns) if dedupe else []
     selected = raw.select(
         **{c: out[c] for c in final_cols},
         **{f"__extra_{i}": raw[c] for i, c in enumerate(extras)},

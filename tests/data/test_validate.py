@@ -200,6 +200,17 @@ def test_repeats_in_a_table_with_no_plate_appearance_key_are_kept_and_counted():
     assert load_pas(df).report.n_repeated_rows == 0
 
 
+def test_duplicates_are_judged_on_the_rows_as_read():
+    # rows 8 and 9 repeat row 1 once normalised (hand "l", code "bb "), but not as written;
+    # only row 10, an exact copy, is a duplicate (hand count)
+    df = _frame()
+    copies = df.iloc[[1, 1, 1]].copy()
+    copies.iloc[0, df.columns.get_loc("batter_hand")] = "l"
+    copies.iloc[1, df.columns.get_loc("outcome")] = copies.iloc[1]["outcome"].lower() + " "
+    pas = load_pas(pd.concat([df, copies], ignore_index=True))
+    assert (pas.report.n_read, pas.report.n_kept, pas.report.dropped) == (11, 10, {"duplicate row": 1})
+
+
 def test_rows_differing_in_an_extra_column_are_not_duplicates():
     df = pd.concat([_frame(), _frame().iloc[[1]]], ignore_index=True)
     df["event_no"] = range(len(df))  # a per-plate-appearance key the contract does not name
