@@ -185,7 +185,7 @@ def plan_games(
     """Starters by rotation, platoon-aware lineups and bullpen order for every game.
 
     Returns ``lineup`` (G, 2, 9) batter rows of ``players``, ``staff`` (G, 2, 9) pitcher rows
-    (starter first), and ``leash`` (G, 2, 9): batters each pitcher may face before he is
+    (starter first), and ``leash`` (G, 2, 9): batters each pitcher may face before being
     relieved. Side 0 is the visiting team, side 1 the home team.
     """
     n_games = len(sched)
@@ -210,7 +210,7 @@ def plan_games(
         axis=-1,
     ).astype(np.int64)
 
-    # Lineups: each manager ranks his batters by true value against the opposing starter's
+    # Lineups: each team ranks its batters by true value against the opposing starter's
     # hand (platoon-aware), with a little noise and a few rest days, and bats the top nine
     # in order of that ranking.
     values = lineup_values(players)
@@ -345,7 +345,7 @@ def play_games(
         n = len(g)
         side = half[g]
         fld = 1 - side
-        # Relieve a pitcher who has reached his leash (the last reliever stays in).
+        # Relieve a pitcher who has reached the leash (the last reliever stays in).
         tired = (faced[g, fld] >= leash[g, fld, pslot[g, fld]]) & (pslot[g, fld] < _PEN - 1)
         pslot[g[tired], fld[tired]] += 1
         faced[g[tired], fld[tired]] = 0

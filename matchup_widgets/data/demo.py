@@ -10,7 +10,7 @@ The league
 ----------
 ``n_teams`` teams (20 by default) each carry 13 batters (left, right or switch hitters) and
 13 pitchers (5 starters in rotation, 8 relievers). Seasons are 162 games of three-game
-series on a balanced schedule. Before each game a manager ranks his batters by true value
+series on a balanced schedule. Before each game each team ranks its batters by true value
 against the hand of the opposing starter (platoon-aware), rests a few, and bats the top nine
 in that order. A starter faces 18-30 batters (mean ~24.5), then relievers take 3-7 each.
 Games last nine innings, the bottom of the ninth is skipped when the home team leads, extra
