@@ -425,6 +425,12 @@ def calibrate(
     if not 0.0 < float(interval_level) < 1.0:
         msg = f"interval_level must lie strictly between 0 and 1; got {interval_level}."
         raise ValueError(msg)
+    if score is not None and season_forward:
+        msg = (
+            "give either a separate score table (score) or the season-forward split "
+            "(season_forward=True), not both: with a score table all of the data is fitted on."
+        )
+        raise ValueError(msg)
     for name, value in (("n_boot", n_boot), ("n_bins", n_bins)):
         if isinstance(value, bool) or not isinstance(value, (int, np.integer)) or value < 1:
             msg = f"{name} must be a whole number >= 1; got {value!r}."

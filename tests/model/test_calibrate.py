@@ -157,6 +157,10 @@ def test_bad_options_raise_with_advice(pas):
         calibrate(pas, n_boot=0, progress=False)
     with pytest.raises(ValueError, match="n_bins must be a whole number >= 1; got 2.5"):
         calibrate(pas, n_bins=2.5, progress=False)
+    # a score table and the season-forward split are two different holdouts (season_forward
+    # used to be ignored silently)
+    with pytest.raises(ValueError, match="either a separate score table .* or the season-forward split"):
+        calibrate(pas, score=pas, season_forward=True, progress=False)
 
 
 def test_fitted_settings_reproduce_the_matchup_model(pas, result):
