@@ -56,7 +56,7 @@ def run(args: argparse.Namespace) -> int:
         "batter": {"id": estimate.batter_id, "name": estimate.batter_name, "hand": estimate.batter_hand},
         "pitcher": {"id": estimate.pitcher_id, "name": estimate.pitcher_name, "hand": estimate.pitcher_hand},
         "split": estimate.split,
-        "pa": dict(estimate.pa),  # whole plate appearances, as blend prints them
+        "pa": estimate.to_dict()["pa"],  # as blend prints them (whole PAs as integers)
         "settings": dict(estimate.settings),
     }
     text = f"Wrote the {fmt.upper()} card for {estimate.batter_name} vs {estimate.pitcher_name} to {path}"
