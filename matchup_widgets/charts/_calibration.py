@@ -242,10 +242,28 @@ def reliability_chart(table: pd.DataFrame, *, columns: int = 3, size: int = 130)
     return style(
         alt.layer(diagonal, line, points, data=rows)
         .properties(width=size, height=size)
-        .facet(facet=alt.Facet("outcome:N", title=None, sort=order), columns=columns)
+        .facet(facet=alt.Facet("outcome:N", title=None, sort=order, header=alt.Header(labelExpr=_outcome_words(order))),
+               columns=columns)
         .resolve_scale(x="independent", y="independent")
         .properties(title="Reliability on held-out plate appearances (dashed: forecast = observed)")
     )
+
+
+def _outcome_words(codes: list[str]) -> str:
+    """A Vega expression that shows each outcome code as its words ("GB_OUT" -> "Ground-ball out").
+
+    Examples
+    --------
+    >>> _outcome_words(["K"])
+    "datum.value === 'K' ? 'Strikeout' : datum.value"
+    """
+    from matchup_widgets.data import OUTCOME_LABELS
+
+    expr = "datum.value"
+    for code in reversed(codes):
+        word, key = (str(t).replace("\\", "\\\\").replace("'", "\\'") for t in (OUTCOME_LABELS.get(code, code), code))
+        expr = f"datum.value === '{key}' ? '{word}' : {expr}"
+    return expr
 
 
 def method_comparison_chart(table: pd.DataFrame, *, value: str = "brier", width: int = 320) -> alt.Chart:

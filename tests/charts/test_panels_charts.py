@@ -155,3 +155,19 @@ def test_panel_charts_render_offline(surface):
     ]
     for chart in charts:
         assert vlc.vegalite_to_svg(chart.to_dict()).startswith("<svg")
+
+
+def test_reliability_panels_are_titled_in_words():
+    # the facet headers showed raw codes (GB_OUT, AIR_OUT, 1B) where every other chart says words
+    t = pd.DataFrame(
+        {
+            "outcome": ["K", "K", "GB_OUT", "GB_OUT", "odd'code", "odd'code"],
+            "mean_predicted": [0.1, 0.2, 0.2, 0.3, 0.1, 0.2],
+            "observed_rate": [0.1, 0.2, 0.2, 0.3, 0.1, 0.2],
+            "n_pa": [5, 6, 7, 8, 9, 10],
+        }
+    )
+    svg = vlc.vegalite_to_svg(reliability_chart(t).to_dict())
+    for words in ("Strikeout", "Ground-ball out", "odd'code"):  # an unknown code shows as it is
+        assert f">{words}</text>" in svg, words
+    assert ">GB_OUT</text>" not in svg and ">K</text>" not in svg
