@@ -283,7 +283,8 @@ def true_probabilities(pas: pd.DataFrame, players: pd.DataFrame) -> np.ndarray:
     Raises
     ------
     DataError
-        If a column is missing, or a batter or pitcher id is not among ``players``.
+        If a column is missing, a hand is not L or R, or a batter or pitcher id is not
+        among ``players``.
 
     Examples
     --------
@@ -310,9 +311,19 @@ def true_probabilities(pas: pd.DataFrame, players: pd.DataFrame) -> np.ndarray:
             )
             raise DataError(msg)
         rows[role] = talents.to_numpy()[idx]
-    hand = {"L": 0, "R": 1}
-    bh = pas["batter_hand"].map(hand).to_numpy()
-    ph = pas["pitcher_hand"].map(hand).to_numpy()
+    coded = {}
+    for col in ("batter_hand", "pitcher_hand"):
+        values = pas[col].to_numpy(dtype=object)
+        bad = ~np.isin(values, ["L", "R"])
+        if bad.any():
+            shown = ", ".join(map(repr, pd.unique(values[bad])[:5]))
+            msg = (
+                f"column '{col}' is not L or R in {int(bad.sum())} row(s) (e.g. {shown}); give the hand "
+                "used in each plate appearance (a switch hitter's side for that PA)."
+            )
+            raise DataError(msg)
+        coded[col] = (values == "R").astype(np.int64)  # 0 = L, 1 = R
+    bh, ph = coded["batter_hand"], coded["pitcher_hand"]
     b, q = rows["batter"], rows["pitcher"]
     p1 = stage1_probabilities(b[:, :4], q[:, :4], bh, ph)
     mu_ev, mu_la = contact_means(b[:, 4], q[:, 4], b[:, 5], q[:, 5], bh, ph)

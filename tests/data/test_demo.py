@@ -293,6 +293,9 @@ def test_oracle_rejects_unknown_players(pas, players):
         true_probabilities(pas.head(3).assign(pitcher_id=["p0001", "p0001", "zz9"]), players)
     with pytest.raises(DataError, match="needs columns"):
         true_probabilities(pas[["batter_id"]], players)
+    # a hand outside L/R used to fail as a numpy IndexError
+    with pytest.raises(DataError, match=r"column 'batter_hand' is not L or R in 1 row\(s\) \(e.g. 'S'\)"):
+        true_probabilities(pas.head(3).assign(batter_hand=["L", "S", "R"]), players)
 
 
 # --------------------------------------------------------------------------- generation
