@@ -3,8 +3,8 @@
 Everything here is the generator's ground truth: the league-wide rates, the platoon
 multipliers, the batted-ball function ``f(exit_velo, launch_angle)`` and the quadrature that
 turns a plate appearance's talents into its exact outcome probabilities. The simulator in
-:mod:`._demo_sim` draws from exactly these functions, so :func:`oracle_probabilities` is the
-best prediction any model could make.
+:mod:`._demo_sim` draws from exactly these functions, so the oracle built on them
+(:func:`matchup_widgets.data.true_probabilities`) is the best prediction any model could make.
 """
 
 from __future__ import annotations
