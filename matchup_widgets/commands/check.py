@@ -7,7 +7,7 @@ from __future__ import annotations
 
 import argparse
 
-from ._data_options import add_data_options, read_outcome_map
+from ._data_options import add_data_options, load_data
 
 
 def register(subparsers: argparse._SubParsersAction) -> None:
@@ -24,13 +24,6 @@ def register(subparsers: argparse._SubParsersAction) -> None:
     add_data_options(p)
     p.add_argument("--table", metavar="NAME", help="table inside a .duckdb file holding several")
     p.add_argument("--strict", action="store_true", help="treat any dropped row or repaired value as an error")
-    p.add_argument(
-        "--duplicates",
-        choices=("auto", "drop", "keep"),
-        default="auto",
-        help="exact duplicate rows: drop them, keep them, or (auto) drop them only when the table has a "
-        "column that tells plate appearances apart (inning, outs_before, bases_before or an extra column)",
-    )
     p.add_argument("--batter", metavar="ID|NAME", help="also check that this batter is in the data")
     p.add_argument("--pitcher", metavar="ID|NAME", help="also check that this pitcher is in the data")
     p.add_argument(
@@ -57,17 +50,10 @@ def _parse_split(text: str) -> tuple[str, str]:
 def run(args: argparse.Namespace) -> int:
     """Validate ``args.path``; print the report (exit 0) or the reason it is unusable (exit 2)."""
     from matchup_widgets.commands._output import emit, fail
-    from matchup_widgets.data import DataError, load_pas, outcome_counts, require_split, resolve_player
+    from matchup_widgets.data import DataError, outcome_counts, require_split, resolve_player
 
     try:
-        pas = load_pas(
-            args.path,
-            mapping=args.mapping,
-            table=args.table,
-            strict=args.strict,
-            outcome_map=read_outcome_map(args.outcome_map),
-            drop_duplicates={"auto": None, "drop": True, "keep": False}[args.duplicates],
-        )
+        pas = load_data(args, args.path, table=args.table, strict=args.strict)
     except DataError as exc:
         return fail(f"{args.path}: not usable. {exc}", as_json=args.json)
     try:

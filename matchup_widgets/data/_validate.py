@@ -652,7 +652,8 @@ def check_table(
                 "are kept: with no column that "
                 "tells plate appearances apart (inning, outs_before, bases_before or an event number), they "
                 "read as real repeats (the same batter making the same out against the same pitcher twice "
-                "in a game). If the table holds copied rows, load with drop_duplicates=True."
+                "in a game). If the table holds copied rows, load with drop_duplicates=True (--duplicates drop "
+                "on the command line)."
             )
     return _Checked(
         table=clean,

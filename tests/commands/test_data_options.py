@@ -41,3 +41,14 @@ def test_mapping_and_outcome_map_reach_every_loading_command(own_names, capsys, 
     extra = ["--mapping", str(own_names / "mapping.json"), "--outcome-map", str(own_names / "codes.json")]
     assert main([*argv, *extra, "--json"]) == 0
     assert "error" not in json.loads(capsys.readouterr().out)
+
+
+def test_duplicates_option_reaches_the_computing_commands(own_names, capsys):
+    # run-values counts the league's plate appearances: 4,000 rows less the 25 dropped SAC rows,
+    # with repeated rows kept (auto, no key column) or dropped as copies (drop)
+    base = ["run-values", "--data", str(own_names / "pas.csv"), "--mapping", str(own_names / "mapping.json"),
+            "--outcome-map", str(own_names / "codes.json"), "--json"]
+    assert main(base) == 0
+    assert json.loads(capsys.readouterr().out)["advancement"]["n_pa"] == 3975
+    assert main([*base, "--duplicates", "drop"]) == 0
+    assert json.loads(capsys.readouterr().out)["advancement"]["n_pa"] < 3975
