@@ -157,11 +157,14 @@ class MatchupExplorer:
                 value=int(round(start["pitcher_prior_pa"])), min=0, max=1500, step=10,
                 description="Pitcher prior (PA)", continuous_update=False, style=_STYLE,
             ),
+            # without exit velocity and launch angle the contact basis can only fail: not offered
             "basis": W.ToggleButtons(
-                options=_BASIS,
-                value=start["basis"],
+                options=_BASIS if self.has_contact else _BASIS[:1],
+                value=start["basis"] if self.has_contact else "observed",
                 description="Outcomes from",
-                tooltips=["Counted outcomes", "Balls in play replaced by what their exit velocity and launch angle usually give"],
+                tooltips=["Counted outcomes", "Balls in play replaced by what their exit velocity and launch angle usually give"][
+                    : 2 if self.has_contact else 1
+                ],
                 style={"description_width": "110px", "button_width": "108px"},
             ),
             "apply_fitted": W.Button(

@@ -336,3 +336,16 @@ def test_a_failing_search_shows_in_the_panel(explorer, monkeypatch):
     ex.controls["batter_search"].value = ""
     ex.controls["pitcher_weight"].value = 0.44  # the next change clears the message
     assert ex.status.last_error is None
+
+
+def test_without_contact_columns_the_contact_basis_is_not_offered(tilted_league):
+    # choosing it could only fail with "ContactModel.fit needs column(s) ..." in the status line
+    from matchup_widgets.data import load_pas
+
+    frame = tilted_league(seed=3, n_pa=3000, n_batters=6, n_pitchers=3, batter_sd=0.3)
+    frame = frame.drop(columns=[c for c in ("exit_velo", "launch_angle") if c in frame.columns])
+    ex = MatchupExplorer(load_pas(frame))
+    assert not ex.has_contact
+    assert [v for _, v in ex.controls["basis"].options] == ["observed"]
+    assert "contact charts are off" in ex.contact_note.value
+    assert ex.status.last_error is None and ex.estimate is not None, ex.status.widget.value
