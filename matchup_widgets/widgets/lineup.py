@@ -20,7 +20,7 @@ from matchup_widgets.export import csv_links_html, write_tables
 
 from ._common import Coalescer, guarded, live_chart, load_data, section, set_chart, StatusLine
 from ._picker import PlayerPicker, player_options
-from ._tables import caution_html
+from ._tables import _runs, caution_html
 
 #: Rule of thumb: about ten runs of run differential make one win (common practice).
 RUNS_PER_WIN: float = 10.0
@@ -225,7 +225,7 @@ class LineupPanel:
                         "change_wins_per_season": wins}
             words.append(
                 f"Swapping in {html.escape(in_name)} for {html.escape(out_name)} (slot {slot + 1}): "
-                f"<b>{s9:.2f}</b> runs per 9, a change of <b>{change:+.3f} runs per game</b>, about "
+                f"<b>{s9:.2f}</b> runs per 9, a change of <b>{_runs(change)} runs per game</b>, about "
                 f"<b>{wins:+.2f} wins per season</b> if every game were against this pitcher "
                 f"(rule of thumb: ~{RUNS_PER_WIN:g} runs per win over {GAMES_PER_SEASON} games)."
             )
@@ -256,7 +256,7 @@ def _slots_html(slots: pd.DataFrame) -> str:
     rows = "".join(
         f"<tr><td style='padding:2px 8px'>{r.slot}</td><td style='padding:2px 8px'>{html.escape(r.batter)}</td>"
         f"<td style='padding:2px 8px'>{html.escape(r.split)}</td><td style='padding:2px 8px'>{r.batter_pa:,.0f}</td>"
-        f"<td style='padding:2px 8px'>{r.runs_per_pa:+.3f}</td><td style='padding:2px 8px'>{r.pa_per_9:.2f}</td></tr>"
+        f"<td style='padding:2px 8px'>{_runs(r.runs_per_pa)}</td><td style='padding:2px 8px'>{r.pa_per_9:.2f}</td></tr>"
         for r in slots.itertuples(index=False)
     )
     return f"<table style='border-collapse:collapse;font-size:13px;white-space:nowrap'><tr>{head}</tr>{rows}</table>"

@@ -19,7 +19,7 @@ from matchup_widgets.export import _settings_line, csv_links_html, write_tables
 
 from ._common import Coalescer, guarded, label_style, live_chart, load_data, section, set_chart, StatusLine
 from ._picker import PlayerPicker, player_options
-from ._tables import caution_html
+from ._tables import _runs, caution_html
 
 #: The two ways to compare: (words on screen, role of the fixed player).
 MODES: tuple[tuple[str, str], ...] = (
@@ -280,8 +280,8 @@ def _ranking_html(table: pd.DataFrame, *, side: str) -> str:
             "<tr>"
             f"<td style='padding:2px 8px'>{r.rank}</td><td style='padding:2px 8px'>{html.escape(str(r.name))}</td>"
             f"<td style='padding:2px 8px'>{html.escape(str(r.split))}</td><td style='padding:2px 8px'>{r.pa:,.0f}</td>"
-            f"<td style='padding:2px 8px'>{r.value:+.3f}</td>"
-            f"<td style='padding:2px 8px'>{r.lo:+.3f} to {r.hi:+.3f}</td><td style='padding:2px 8px'>{clear}</td>"
+            f"<td style='padding:2px 8px'>{_runs(r.value)}</td>"
+            f"<td style='padding:2px 8px'>{_runs(r.lo)} to {_runs(r.hi)}</td><td style='padding:2px 8px'>{clear}</td>"
             "</tr>"
         )
     n_close = int(table["overlaps_best"].sum()) - 1

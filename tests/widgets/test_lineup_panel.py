@@ -119,3 +119,14 @@ def test_slot_table_headers_wrap_inside_the_panel(panel):
     assert [h for _, h in heads][-1] == "PA per 9 innings"
     assert all("white-space:normal" in style for style, _ in heads)
     assert "white-space:nowrap" in panel.slot_table.value  # the cells stay on one line
+
+
+def test_swapping_a_batter_for_the_same_one_reads_as_no_change(pas, model):
+    # the same order solved twice can differ in the last bit; it must not read "-0.000 runs per game"
+    lineup = LineupPanel(pas, model=model, pitcher="p0", order=ORDER)
+    lineup.swap_in.value = ORDER[2]
+    lineup.swap_slot.value = 2
+    assert lineup.status.last_error is None, lineup.status.widget.value
+    assert lineup.tables()["summary"].loc[0, "change_runs_per_game"] == pytest.approx(0.0, abs=1e-12)
+    assert "a change of <b>+0.000 runs per game</b>" in lineup.headline.value
+    assert "-0.000" not in lineup.headline.value + lineup.slot_table.value
