@@ -259,6 +259,15 @@ class CalibrationLab:
             f"batter prior {sent['batter_prior_pa']:g} PA, pitcher prior {sent['pitcher_prior_pa']:g} PA, "
             f"{html.escape(sent['basis'])} basis."
         )
+        # a receiving panel shows its own errors, possibly far down the page: say so here too
+        failed = [p for p in (self.explorer, *self.targets)
+                  if getattr(getattr(p, "status", None), "last_error", None) is not None]
+        if failed:
+            first = failed[0].status.last_error
+            self.status.warn(
+                f"{len(failed)} receiving panel(s) could not update with these settings: {first} "
+                "(see that panel's status line)."
+            )
         return sent
 
     def tables(self) -> dict[str, pd.DataFrame]:

@@ -177,3 +177,28 @@ def test_before_a_fit_every_chart_says_what_will_fill_it(pas, fitted):
     lab, _ = fitted
     assert lab.skill_chart.chart.to_dict()["layer"][0]["mark"]["type"] == "bar"  # a fit replaces them
     assert lab.reliability_chart.chart.to_dict()["facet"]["field"] == "outcome"
+
+
+def test_a_receiver_that_fails_is_reported_here_too(pas, fitted):
+    from matchup_widgets.widgets._common import StatusLine
+
+    class Failing(_Receiver):
+        def __init__(self) -> None:
+            super().__init__()
+            self.status = StatusLine()
+
+        def apply_settings(self, **settings) -> None:
+            super().apply_settings(**settings)
+            self.status.error("Could not update", ValueError("no plate appearances in 2031"))
+
+    lab, _ = fitted
+    failing = Failing()
+    lab.connect(failing)
+    try:
+        lab.apply()
+        assert "Sent to" in lab.applied.value
+        assert "1 receiving panel(s) could not update" in lab.status.widget.value
+        assert "no plate appearances in 2031" in lab.status.widget.value
+    finally:
+        lab.targets.remove(failing)
+        lab.status.clear()
