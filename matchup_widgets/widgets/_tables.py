@@ -45,9 +45,11 @@ def outcome_table(estimate: Any) -> pd.DataFrame:
     high = np.full(probs.shape, np.nan)
     sides = getattr(estimate, "side_intervals", None)
     if sides is not None:
-        # rows (side, bound) in the order batter, pitcher, league x lo, hi
-        both = sides[codes].to_numpy(dtype=float).reshape(-1, 2, len(codes))
-        low[:-1], high[:-1] = both[:, 0], both[:, 1]
+        # rows are labelled (side, "lo"/"hi"): select by label, so another row order cannot
+        # hang one side's whiskers on another side's bars
+        for i, side in enumerate(_SIDES[:-1]):
+            low[i] = sides.loc[(side, "lo"), codes].to_numpy(dtype=float)
+            high[i] = sides.loc[(side, "hi"), codes].to_numpy(dtype=float)
     low[-1] = estimate.intervals.loc[codes, "lo"].to_numpy(dtype=float)
     high[-1] = estimate.intervals.loc[codes, "hi"].to_numpy(dtype=float)
     return pd.DataFrame(

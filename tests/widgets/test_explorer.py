@@ -349,3 +349,17 @@ def test_without_contact_columns_the_contact_basis_is_not_offered(tilted_league)
     assert [v for _, v in ex.controls["basis"].options] == ["observed"]
     assert "contact charts are off" in ex.contact_note.value
     assert ex.status.last_error is None and ex.estimate is not None, ex.status.widget.value
+
+
+def test_whiskers_follow_the_side_labels_not_the_row_order(explorer):
+    import dataclasses
+
+    from matchup_widgets.widgets._tables import outcome_table
+
+    est = explorer.estimate
+    shuffled = dataclasses.replace(est, side_intervals=est.side_intervals.iloc[::-1])
+    got = outcome_table(shuffled)
+    want = outcome_table(est)
+    np.testing.assert_array_equal(got[["low", "high"]].to_numpy(), want[["low", "high"]].to_numpy())
+    pitcher = got[got["side"] == "pitcher"].set_index("outcome")
+    np.testing.assert_allclose(pitcher.loc[list(OUTCOMES), "low"], est.side_intervals.loc[("pitcher", "lo"), list(OUTCOMES)])
