@@ -14,7 +14,7 @@ from typing import Any
 import numpy as np
 import pandas as pd
 
-from matchup_widgets.data import BATTED, DataError
+from matchup_widgets.data import BATTED, DataError, season_range
 
 #: Key column of each role in the plate-appearance table.
 ROLE_KEYS: dict[str, str] = {"batter": "batter_id", "pitcher": "pitcher_id"}
@@ -70,16 +70,10 @@ def season_mask(values: pd.Series | np.ndarray, seasons: tuple[int, int] | None)
     The same convention as :func:`matchup_widgets.data.outcome_counts`.
     """
     values = np.asarray(values)
-    if seasons is None:
+    pair = season_range(seasons)
+    if pair is None:
         return np.ones(len(values), dtype=bool)
-    try:
-        first, last = (int(s) for s in seasons)
-    except (TypeError, ValueError):
-        msg = f"seasons must be an inclusive (first, last) pair of years or None, got {seasons!r}."
-        raise ValueError(msg) from None
-    if first > last:
-        msg = f"seasons=({first}, {last}): the first season is after the last; give (first, last)."
-        raise ValueError(msg)
+    first, last = pair
     return (values >= first) & (values <= last)
 
 

@@ -1,6 +1,6 @@
 """Plate-appearance data: the contract, loading and validation, aggregation, the demo league."""
 
-from ._aggregate import league_counts, outcome_counts, require_split
+from ._aggregate import league_counts, outcome_counts, require_split, season_range
 from ._errors import DataError
 from ._load import PlateAppearances, as_table, load_pas
 from ._players import player_table, resolve_player, search_players
@@ -51,6 +51,7 @@ __all__ = [
     "require_split",
     "resolve_player",
     "search_players",
+    "season_range",
     "DemoLeague",
     "demo_path",
     "make_demo_league",

@@ -37,10 +37,20 @@ def _require(t: ir.Table, columns: list[str]) -> None:
         raise DataError(msg)
 
 
-def _filter_seasons(t: ir.Table, seasons: Any) -> ir.Table:
+def season_range(seasons: Any) -> tuple[int, int] | None:
+    """Check a season filter: an inclusive ``(first, last)`` pair of years, or None for all.
+
+    Every layer that takes ``seasons=`` checks it here, so the rule and the message are one.
+
+    Examples
+    --------
+    >>> season_range(["2024", 2026])
+    (2024, 2026)
+    >>> season_range(None) is None
+    True
+    """
     if seasons is None:
-        return t
-    _require(t, ["season"])
+        return None
     try:
         first, last = (int(s) for s in seasons)
     except (TypeError, ValueError):
@@ -49,6 +59,15 @@ def _filter_seasons(t: ir.Table, seasons: Any) -> ir.Table:
     if first > last:
         msg = f"seasons=({first}, {last}): the first season is after the last; give (first, last)."
         raise ValueError(msg)
+    return first, last
+
+
+def _filter_seasons(t: ir.Table, seasons: Any) -> ir.Table:
+    pair = season_range(seasons)
+    if pair is None:
+        return t
+    _require(t, ["season"])
+    first, last = pair
     return t.filter((t.season >= first) & (t.season <= last))
 
 

@@ -10,7 +10,7 @@ from typing import Any
 import numpy as np
 import pandas as pd
 
-from matchup_widgets.data import HANDS, OUTCOMES, DataError
+from matchup_widgets.data import HANDS, OUTCOMES, DataError, season_range
 
 from ._blend import METHODS, blend
 from ._distributions import CountCube, split_label
@@ -610,17 +610,7 @@ def _check_settings(params: dict[str, Any]) -> dict[str, Any]:
     if not (isinstance(out["n_draws"], (int, np.integer)) and out["n_draws"] >= 10):
         msg = f"n_draws must be a whole number >= 10; got {out['n_draws']!r}."
         raise ValueError(msg)
-    seasons = out["seasons"]
-    if seasons is not None:
-        try:
-            first, last = (int(s) for s in seasons)
-        except (TypeError, ValueError):
-            msg = f"seasons must be None or an inclusive (first, last) pair of years; got {seasons!r}."
-            raise ValueError(msg) from None
-        if first > last:
-            msg = f"seasons=({first}, {last}): the first season is after the last; give (first, last)."
-            raise ValueError(msg)
-        out["seasons"] = (first, last)
+    out["seasons"] = season_range(out["seasons"])
     return out
 
 
