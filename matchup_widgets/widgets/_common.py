@@ -281,3 +281,30 @@ def load_data(path: str | os.PathLike | None = None) -> Any:
     from matchup_widgets.data import load_pas
 
     return load_pas(data_path(path))
+
+
+class Panel:
+    """What every panel shares: a root ``widget`` to display inline or with :meth:`show`."""
+
+    widget: Any
+
+    def show(self) -> None:
+        """Display the panel."""
+        from IPython.display import display
+
+        display(self.widget)
+
+    def _repr_mimebundle_(self, **kwargs: Any) -> Any:
+        return self.widget._repr_mimebundle_(**kwargs)
+
+
+class DataPanel(Panel):
+    """A panel built on loaded plate appearances (its constructor's first argument)."""
+
+    @classmethod
+    def from_path(cls, path: str | os.PathLike | None = None, **kwargs: Any) -> Any:
+        """Load ``path``, else ``$MATCHUP_WIDGETS_DATA``, else the demo league; build the panel.
+
+        Keyword arguments go to the panel's constructor.
+        """
+        return cls(load_data(path), **kwargs)

@@ -4,7 +4,6 @@ outcome bars, contact, headline figures and run context update in place."""
 from __future__ import annotations
 
 import html
-import os
 from collections import OrderedDict
 from collections.abc import Callable
 from typing import Any
@@ -20,9 +19,16 @@ from matchup_widgets.charts import (
 )
 from matchup_widgets.charts._theme import INK, MUTED
 
-from ._common import Coalescer, guarded, LiveChart, load_data, log, section, StatusLine
+from ._common import Coalescer, DataPanel, LiveChart, StatusLine, guarded, log, section
 from ._picker import PlayerPicker
-from ._tables import caution_html, headline_html, heatmap_table, outcome_table, run_table, tier_table
+from ._tables import (
+    caution_html,
+    headline_html,
+    heatmap_table,
+    outcome_table,
+    run_table,
+    tier_table,
+)
 
 #: Environment variable naming the plate-appearance file (set by ``matchup-widgets dashboard``).
 
@@ -45,7 +51,7 @@ _CACHE_SIZE = 24
 _CONTROL_WIDTH = "336px"
 
 
-class MatchupExplorer:
+class MatchupExplorer(DataPanel):
     """The screen an analyst opens first: one batter against one pitcher.
 
     Controls (``controls``): searchable batter and pitcher pickers, the platoon side
@@ -224,15 +230,6 @@ class MatchupExplorer:
         self._coalescer.request()
 
     # ---- construction helpers ------------------------------------------------------------
-    @classmethod
-    def from_path(cls, path: str | os.PathLike | None = None, **kwargs: Any) -> MatchupExplorer:
-        """Load plate appearances and build the explorer.
-
-        ``path`` defaults to the file named by ``MATCHUP_WIDGETS_DATA``, else the demo league.
-        Keyword arguments go to :class:`MatchupExplorer`.
-        """
-        return cls(load_data(path), **kwargs)
-
     @staticmethod
     def _state_options() -> list[tuple[str, int]]:
         from matchup_widgets.runs import STATES
@@ -275,15 +272,6 @@ class MatchupExplorer:
         return f"{n:,} plate appearances, {seasons}. Pick a batter and a pitcher; everything below follows the controls."
 
     # ---- public --------------------------------------------------------------------------
-    def show(self) -> None:
-        """Display the panel."""
-        from IPython.display import display
-
-        display(self.widget)
-
-    def _repr_mimebundle_(self, **kwargs: Any) -> Any:
-        return self.widget._repr_mimebundle_(**kwargs)
-
     def current_settings(self) -> dict[str, Any]:
         """The model settings the controls describe."""
         c = self.controls

@@ -21,7 +21,15 @@ from matchup_widgets.charts import (
 from matchup_widgets.charts._calibration import pending_chart
 from matchup_widgets.export import csv_links_html, write_tables
 
-from ._common import guarded, label_style, live_chart, load_data, section, set_chart, StatusLine
+from ._common import (
+    DataPanel,
+    StatusLine,
+    guarded,
+    label_style,
+    live_chart,
+    section,
+    set_chart,
+)
 from ._tables import caution_html
 
 #: Words on screen for the calibration baselines.
@@ -35,7 +43,7 @@ BASELINE_LABELS: dict[str, str] = {
 _SURFACE_Y = {"Batter prior (PA)": "batter_prior_pa", "Pitcher prior (PA)": "pitcher_prior_pa"}
 
 
-class CalibrationLab:
+class CalibrationLab(DataPanel):
     """Fit pitcher weight and prior sizes on held-out games; show the evidence; apply them.
 
     Parameters
@@ -156,20 +164,6 @@ class CalibrationLab:
             ]
         )
         self.widget.add_class("mw-calibration-lab")
-
-    @classmethod
-    def from_path(cls, path: str | None = None, **kwargs: Any) -> CalibrationLab:
-        """Load the table named by ``path``, ``$MATCHUP_WIDGETS_DATA`` or the demo league."""
-        return cls(load_data(path), **kwargs)
-
-    def show(self) -> None:
-        """Display the panel."""
-        from IPython.display import display
-
-        display(self.widget)
-
-    def _repr_mimebundle_(self, **kwargs: Any) -> Any:
-        return self.widget._repr_mimebundle_(**kwargs)
 
     # -- actions ------------------------------------------------------------------------
     def fit(self) -> Any:

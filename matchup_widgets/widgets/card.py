@@ -13,9 +13,15 @@ from typing import Any
 
 import ipywidgets as W
 
-from matchup_widgets.export import CARD_FORMATS, card_tables, csv_links_html, matchup_card, render_card
+from matchup_widgets.export import (
+    CARD_FORMATS,
+    card_tables,
+    csv_links_html,
+    matchup_card,
+    render_card,
+)
 
-from ._common import StatusLine, guarded
+from ._common import Panel, StatusLine, guarded
 
 _MIME = {"html": "text/html", "png": "image/png", "svg": "image/svg+xml"}
 
@@ -24,7 +30,7 @@ def _slug(text: str) -> str:
     return re.sub(r"[^a-z0-9]+", "_", text.lower()).strip("_") or "matchup"
 
 
-class MatchupCardExport:
+class MatchupCardExport(Panel):
     """Buttons that turn the explorer's current matchup into a card or CSV files.
 
     Parameters
@@ -47,15 +53,6 @@ class MatchupCardExport:
         self.link.add_class("mw-card-link")
         self.widget = W.VBox([W.HBox(list(self.buttons.values())), self.link, self.status.widget])
         self.widget.add_class("mw-card-export")
-
-    def show(self) -> None:
-        """Display the panel."""
-        from IPython.display import display
-
-        display(self.widget)
-
-    def _repr_mimebundle_(self, **kwargs: Any) -> Any:
-        return self.widget._repr_mimebundle_(**kwargs)
 
     def _estimate(self) -> Any:
         est = getattr(self.explorer, "estimate", None)

@@ -18,7 +18,15 @@ import pandas as pd
 from matchup_widgets.charts import lineup_runs_chart
 from matchup_widgets.export import csv_links_html, write_tables
 
-from ._common import Coalescer, guarded, live_chart, load_data, section, set_chart, StatusLine
+from ._common import (
+    Coalescer,
+    DataPanel,
+    StatusLine,
+    guarded,
+    live_chart,
+    section,
+    set_chart,
+)
 from ._picker import PlayerPicker, player_options
 from ._tables import _runs, caution_html
 
@@ -41,7 +49,7 @@ def wins_per_season(runs_per_game: float, *, games: int = GAMES_PER_SEASON, runs
     return float(runs_per_game) * games / runs_per_win
 
 
-class LineupPanel:
+class LineupPanel(DataPanel):
     """Nine batters against one pitcher: exact runs per 9, runs per inning, and a swap.
 
     Parameters
@@ -130,20 +138,6 @@ class LineupPanel:
         )
         self.widget.add_class("mw-lineup")
         self._coalescer.request()
-
-    @classmethod
-    def from_path(cls, path: str | None = None, **kwargs: Any) -> LineupPanel:
-        """Load ``path``, ``$MATCHUP_WIDGETS_DATA`` or the demo league, and build the panel."""
-        return cls(load_data(path), **kwargs)
-
-    def show(self) -> None:
-        """Display the panel."""
-        from IPython.display import display
-
-        display(self.widget)
-
-    def _repr_mimebundle_(self, **kwargs: Any) -> Any:
-        return self.widget._repr_mimebundle_(**kwargs)
 
     # -- public ------------------------------------------------------------------------
     @property

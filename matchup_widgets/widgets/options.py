@@ -17,7 +17,16 @@ from matchup_widgets.charts import option_ranking_chart
 from matchup_widgets.charts._calibration import pending_chart
 from matchup_widgets.export import _settings_line, csv_links_html, write_tables
 
-from ._common import Coalescer, guarded, label_style, live_chart, load_data, section, set_chart, StatusLine
+from ._common import (
+    Coalescer,
+    DataPanel,
+    StatusLine,
+    guarded,
+    label_style,
+    live_chart,
+    section,
+    set_chart,
+)
 from ._picker import PlayerPicker, player_options
 from ._tables import _runs, caution_html
 
@@ -42,7 +51,7 @@ def _state_choices() -> list[tuple[str, int]]:
     ]
 
 
-class OptionRanking:
+class OptionRanking(DataPanel):
     """Rank candidate batters against one pitcher (or pitchers against one batter) by run value.
 
     Parameters
@@ -125,20 +134,6 @@ class OptionRanking:
         )
         self.widget.add_class("mw-option-ranking")
         self._coalescer.request()
-
-    @classmethod
-    def from_path(cls, path: str | None = None, **kwargs: Any) -> OptionRanking:
-        """Load ``path``, ``$MATCHUP_WIDGETS_DATA`` or the demo league, and build the panel."""
-        return cls(load_data(path), **kwargs)
-
-    def show(self) -> None:
-        """Display the panel."""
-        from IPython.display import display
-
-        display(self.widget)
-
-    def _repr_mimebundle_(self, **kwargs: Any) -> Any:
-        return self.widget._repr_mimebundle_(**kwargs)
 
     # -- public ------------------------------------------------------------------------
     @property
