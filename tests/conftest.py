@@ -101,3 +101,44 @@ def _tilted_league(
 def tilted_league():
     """Factory for a small invented league (see ``_tilted_league``); smoke data only."""
     return _tilted_league
+
+
+def _contact_league(*, seed: int, n_pa: int, n_batters: int, n_pitchers: int):
+    """A small invented league with exit velocity and launch angle on every batted ball.
+
+    Outcomes come from one fixed mix and contact is drawn independently of them: smoke data
+    for the contact paths of the model and the explorer, never a check value.
+    """
+    import numpy as np
+    import pandas as pd
+
+    from matchup_widgets.data import BATTED, OUTCOMES
+
+    rng = np.random.default_rng(seed)
+    codes = np.asarray(OUTCOMES)
+    probs = np.asarray(_BASE_RATES)
+    outcome = codes[rng.choice(9, n_pa, p=probs / probs.sum())]
+    batted = np.isin(outcome, BATTED)
+    b, p = rng.integers(0, n_batters, n_pa), rng.integers(0, n_pitchers, n_pa)
+    game = np.arange(n_pa) // 60
+    return pd.DataFrame(
+        {
+            "game_id": [f"g{g:04d}" for g in game],
+            "game_date": pd.Timestamp("2031-04-01") + pd.to_timedelta(game // 3, unit="D"),
+            "batter_id": [f"b{i:02d}" for i in b],
+            "pitcher_id": [f"p{i:02d}" for i in p],
+            "batter_name": [f"Batter Number{i}" for i in b],
+            "pitcher_name": [f"Pitcher Number{i}" for i in p],
+            "batter_hand": np.where(b % 3 == 0, "L", "R"),
+            "pitcher_hand": np.where(p % 2 == 0, "L", "R"),
+            "outcome": outcome,
+            "exit_velo": np.where(batted, rng.normal(88, 13, n_pa), np.nan),
+            "launch_angle": np.where(batted, rng.normal(12, 26, n_pa), np.nan),
+        }
+    )
+
+
+@pytest.fixture(scope="session")
+def contact_league():
+    """Factory for a small invented league with contact columns (see ``_contact_league``)."""
+    return _contact_league

@@ -10,7 +10,6 @@ from __future__ import annotations
 import json
 
 import numpy as np
-import pandas as pd
 import pytest
 from numpy.testing import assert_allclose
 
@@ -24,29 +23,9 @@ from matchup_widgets.data import OUTCOMES, load_pas
 from matchup_widgets.model import MatchupModel, calibrate
 
 
-def _league(seed: int = 5, n_pa: int = 12_000) -> pd.DataFrame:
-    rng = np.random.default_rng(seed)
-    codes = np.asarray(OUTCOMES)
-    probs = np.array([0.22, 0.08, 0.01, 0.15, 0.045, 0.005, 0.03, 0.22, 0.23])
-    outcome = codes[rng.choice(9, n_pa, p=probs / probs.sum())]
-    batted = np.isin(outcome, ["1B", "2B", "3B", "HR", "GB_OUT", "AIR_OUT"])
-    b, p = rng.integers(0, 20, n_pa), rng.integers(0, 12, n_pa)
-    game = np.arange(n_pa) // 60
-    return pd.DataFrame({
-        "game_id": [f"g{g:04d}" for g in game],
-        "game_date": pd.Timestamp("2031-04-01") + pd.to_timedelta(game // 3, unit="D"),
-        "batter_id": [f"b{i:02d}" for i in b], "pitcher_id": [f"p{i:02d}" for i in p],
-        "batter_name": [f"Batter Number{i}" for i in b], "pitcher_name": [f"Pitcher Number{i}" for i in p],
-        "batter_hand": np.where(b % 3 == 0, "L", "R"), "pitcher_hand": np.where(p % 2 == 0, "L", "R"),
-        "outcome": outcome,
-        "exit_velo": np.where(batted, rng.normal(88, 13, n_pa), np.nan),
-        "launch_angle": np.where(batted, rng.normal(12, 26, n_pa), np.nan),
-    })
-
-
 @pytest.fixture(scope="module")
-def pas():
-    return load_pas(_league())
+def pas(contact_league):
+    return load_pas(contact_league(seed=5, n_pa=12_000, n_batters=20, n_pitchers=12))
 
 
 @pytest.fixture(scope="module")
@@ -93,13 +72,13 @@ def test_bad_contact_model_says_what_to_give(bad):
         MatchupModel(contact_model=bad).with_settings(method="linear")
 
 
-def test_calibrating_on_the_contact_basis_leaves_the_dataset_cache_alone():
+def test_calibrating_on_the_contact_basis_leaves_the_dataset_cache_alone(contact_league):
     # calibrate refits the contact model on the fitting games only (honest); that model must
     # not become the dataset's own, which dashboards use for the same loaded data
     from matchup_widgets.contact import _cache
 
     clear_contact_cache()
-    frame = _league(seed=8, n_pa=6_000)
+    frame = contact_league(seed=8, n_pa=6_000, n_batters=20, n_pitchers=12)
     pas = load_pas(frame)
     result = calibrate(pas, basis="contact", priors=(0, 100), n_boot=5, progress=False)
     assert np.isfinite(result.brier)

@@ -6,8 +6,6 @@ the contact layer's own public functions for the same fitted model.
 
 from __future__ import annotations
 
-import numpy as np
-import pandas as pd
 import pytest
 from numpy.testing import assert_allclose
 
@@ -22,29 +20,9 @@ from matchup_widgets.model import MatchupModel
 from matchup_widgets.widgets import MatchupExplorer
 
 
-def _league(seed: int = 21, n_pa: int = 15_000) -> pd.DataFrame:
-    rng = np.random.default_rng(seed)
-    codes = np.asarray(OUTCOMES)
-    probs = np.array([0.22, 0.08, 0.01, 0.15, 0.045, 0.005, 0.03, 0.22, 0.23])
-    outcome = codes[rng.choice(9, n_pa, p=probs / probs.sum())]
-    batted = np.isin(outcome, ["1B", "2B", "3B", "HR", "GB_OUT", "AIR_OUT"])
-    b, p = rng.integers(0, 24, n_pa), rng.integers(0, 14, n_pa)
-    game = np.arange(n_pa) // 60
-    return pd.DataFrame({
-        "game_id": [f"g{g:04d}" for g in game],
-        "game_date": pd.Timestamp("2031-04-01") + pd.to_timedelta(game // 3, unit="D"),
-        "batter_id": [f"b{i:02d}" for i in b], "pitcher_id": [f"p{i:02d}" for i in p],
-        "batter_name": [f"Batter Number{i}" for i in b], "pitcher_name": [f"Pitcher Number{i}" for i in p],
-        "batter_hand": np.where(b % 3 == 0, "L", "R"), "pitcher_hand": np.where(p % 2 == 0, "L", "R"),
-        "outcome": outcome,
-        "exit_velo": np.where(batted, rng.normal(88, 13, n_pa), np.nan),
-        "launch_angle": np.where(batted, rng.normal(12, 26, n_pa), np.nan),
-    })
-
-
 @pytest.fixture(scope="module")
-def pas():
-    return load_pas(_league())
+def pas(contact_league):
+    return load_pas(contact_league(seed=21, n_pa=15_000, n_batters=24, n_pitchers=14))
 
 
 @pytest.fixture(scope="module")
