@@ -45,8 +45,12 @@ _PLATOON = (
 )
 #: Blend methods that have no pitcher weight (the odds-ratio blend counts both sides fully).
 _NO_WEIGHT = frozenset({"odds-ratio"})
+#: The blend with two pitcher weights (first stage, balls in play) instead of one.
+_TWO_STAGE = "two-stage"
 _BASIS = (("Observed", "observed"), ("Contact-based", "contact"))
 _STYLE = {"description_width": "110px"}
+# the two-stage sliders' labels are longer; at 110 px they were cut to "Pitcher weight, f..."
+_WIDE_LABEL = {"description_width": "180px"}
 _CACHE_SIZE = 24
 _CONTROL_WIDTH = "336px"
 
@@ -155,6 +159,19 @@ class MatchupExplorer(DataPanel):
                 value=float(start["pitcher_weight"]), min=0.0, max=1.0, step=0.01,
                 description="Pitcher weight", readout_format=".2f", continuous_update=False, style=_STYLE,
             ),
+            # the two-stage blend's own weights: shown instead of the single one under that blend
+            "first_weight": W.FloatSlider(
+                value=_weight_start(start, "first_weight"), min=0.0, max=1.0, step=0.01,
+                description="Pitcher weight, first stage", readout_format=".2f", continuous_update=False,
+                tooltip="Pitcher's share in strikeout, walk, HBP, home run and ball in play (0 = batter only, 1 = pitcher only)",
+                style=_WIDE_LABEL,
+            ),
+            "in_play_weight": W.FloatSlider(
+                value=_weight_start(start, "in_play_weight"), min=0.0, max=1.0, step=0.01,
+                description="Pitcher weight, balls in play", readout_format=".2f", continuous_update=False,
+                tooltip="Pitcher's share in what balls in play become (0 = batter only, 1 = pitcher only)",
+                style=_WIDE_LABEL,
+            ),
             "batter_prior": W.IntSlider(
                 value=int(round(start["batter_prior_pa"])), min=0, max=1500, step=10,
                 description="Batter prior (PA)", continuous_update=False, style=_STYLE,
@@ -248,7 +265,7 @@ class MatchupExplorer(DataPanel):
                 section("Who is batting", self.batter_picker.widget, note="Type part of a name; ids tell namesakes apart."),
                 section("Who is pitching", self.pitcher_picker.widget),
                 section("Platoon", c["platoon"]),
-                section("Model", W.HBox([c["seasons"], self.seasons_readout]), c["method"], c["pitcher_weight"], c["batter_prior"], c["pitcher_prior"], c["basis"], c["apply_fitted"]),
+                section("Model", W.HBox([c["seasons"], self.seasons_readout]), c["method"], c["pitcher_weight"], c["first_weight"], c["in_play_weight"], c["batter_prior"], c["pitcher_prior"], c["basis"], c["apply_fitted"]),
                 section("Run context", c["state"], note="Every hitter for the rest of the inning is this matchup."),
             ],
             layout=W.Layout(width="356px", min_width="356px", padding="0 16px 0 0", overflow="hidden"),
@@ -276,9 +293,13 @@ class MatchupExplorer(DataPanel):
         """The model settings the controls describe."""
         c = self.controls
         seasons = tuple(int(s) for s in c["seasons"].value)
+        two_stage = c["method"].value == _TWO_STAGE
         return {
             "method": c["method"].value,
             "pitcher_weight": float(c["pitcher_weight"].value),
+            # only the two-stage blend reads these; None elsewhere keeps other blends' keys unchanged
+            "first_weight": float(c["first_weight"].value) if two_stage else None,
+            "in_play_weight": float(c["in_play_weight"].value) if two_stage else None,
             "batter_prior_pa": float(c["batter_prior"].value),
             "pitcher_prior_pa": float(c["pitcher_prior"].value),
             "basis": c["basis"].value,
@@ -297,18 +318,25 @@ class MatchupExplorer(DataPanel):
         *,
         method: str | None = None,
         pitcher_weight: float | None = None,
+        first_weight: float | None = None,
+        in_play_weight: float | None = None,
         batter_prior_pa: float | None = None,
         pitcher_prior_pa: float | None = None,
         basis: str | None = None,
         seasons: tuple[int, int] | None = None,
     ) -> None:
-        """Move several controls at once; the outputs update once at the end."""
+        """Move several controls at once; the outputs update once at the end.
+
+        ``first_weight`` and ``in_play_weight`` set the two-stage blend's two sliders.
+        """
         c = self.controls
         with self._coalescer.paused():
             if method is not None:
                 c["method"].value = method
-            if pitcher_weight is not None:
-                c["pitcher_weight"].value = round(min(max(float(pitcher_weight), 0.0), 1.0), 3)
+            for name, weight in (("pitcher_weight", pitcher_weight), ("first_weight", first_weight),
+                                 ("in_play_weight", in_play_weight)):
+                if weight is not None:
+                    c[name].value = round(min(max(float(weight), 0.0), 1.0), 3)
             if batter_prior_pa is not None:
                 c["batter_prior"].value = int(round(min(float(batter_prior_pa), c["batter_prior"].max)))
             if pitcher_prior_pa is not None:
@@ -319,25 +347,37 @@ class MatchupExplorer(DataPanel):
                 c["seasons"].value = tuple(int(s) for s in seasons)
 
     def apply_calibration(self, result: Any) -> None:
-        """Use fitted settings: linear blend, the fitted weight and priors (and basis), in one update.
+        """Use fitted settings: blend, the fitted weight(s) and priors (and basis), in one update.
 
-        ``result`` is a :class:`~matchup_widgets.model.CalibrationResult` or a mapping with
-        ``pitcher_weight``, ``batter_prior_pa``, ``pitcher_prior_pa`` (``basis`` and
-        ``brier`` optional).
+        ``result`` is a :class:`~matchup_widgets.model.CalibrationResult` (its linear fit) or
+        a mapping with ``pitcher_weight``, ``batter_prior_pa``, ``pitcher_prior_pa``
+        (``basis`` and ``brier`` optional). A mapping with ``method="two-stage"`` (as
+        ``CalibrationResult.model_settings("two-stage")`` gives) carries ``first_weight``
+        and ``in_play_weight`` instead of ``pitcher_weight``.
         """
         get = result.get if isinstance(result, dict) else lambda k, default=None: getattr(result, k, default)
-        weight = float(get("pitcher_weight"))
+        method = get("method", None) or "linear"
+        if method not in ("linear", _TWO_STAGE):
+            msg = (f"apply_calibration got method {method!r}; it applies 'linear' or 'two-stage' fits. "
+                   "Use apply_settings(...) for other blends.")
+            raise ValueError(msg)
         b_prior, p_prior = float(get("batter_prior_pa")), float(get("pitcher_prior_pa"))
-        # calibration fits the linear blend
+        if method == _TWO_STAGE:
+            first, in_play = float(get("first_weight")), float(get("in_play_weight"))
+            weights = {"first_weight": first, "in_play_weight": in_play}
+            words = f"two-stage blend, pitcher weight {first:.2f} first stage and {in_play:.2f} on balls in play"
+        else:
+            weight = float(get("pitcher_weight"))
+            weights = {"pitcher_weight": weight}
+            words = f"pitcher weight {weight:.2f}"
         self.apply_settings(
-            method="linear", pitcher_weight=weight, batter_prior_pa=b_prior, pitcher_prior_pa=p_prior,
-            basis=get("basis", None),
+            method=method, **weights, batter_prior_pa=b_prior, pitcher_prior_pa=p_prior, basis=get("basis", None),
         )
         brier = get("brier", None)
         extra = f"; held-out Brier score {float(brier):.4f}" if brier is not None else ""
         if self.status.last_error is None:
             self.status.note(
-                f"Fitted settings applied: pitcher weight {weight:.2f}, batter prior {b_prior:,.0f} PA, "
+                f"Fitted settings applied: {words}, batter prior {b_prior:,.0f} PA, "
                 f"pitcher prior {p_prior:,.0f} PA{extra}."
             )
 
@@ -346,6 +386,11 @@ class MatchupExplorer(DataPanel):
         self.seasons_readout.value = _season_words(change["new"])
 
     def _on_method_weight(self, change: Any) -> None:
+        # the two-stage blend has a weight per stage: its two sliders replace the single one
+        two_stage = change["new"] == _TWO_STAGE
+        self.controls["pitcher_weight"].layout.display = "none" if two_stage else None
+        for name in ("first_weight", "in_play_weight"):
+            self.controls[name].layout.display = None if two_stage else "none"
         # the odds-ratio blend ignores the pitcher weight: a live slider there would move nothing
         slider = self.controls["pitcher_weight"]
         slider.disabled = change["new"] in _NO_WEIGHT
@@ -428,8 +473,10 @@ class MatchupExplorer(DataPanel):
         self._draw("heatmap", heat)
 
         cmodel = self.contact_model  # the model behind the contact basis too
+        # the tier mix is within balls in play: the two-stage blend's second-stage weight
+        in_play = settings["in_play_weight"]
         blend = {
-            "pitcher_weight": settings["pitcher_weight"],
+            "pitcher_weight": settings["pitcher_weight"] if in_play is None else in_play,
             "batter_prior_pa": settings["batter_prior_pa"],
             "pitcher_prior_pa": settings["pitcher_prior_pa"],
         }
@@ -448,6 +495,12 @@ class MatchupExplorer(DataPanel):
             outcome_given=given, **blend,
         )
         self._draw("tiers", tier_table(sides, mix))
+
+
+def _weight_start(start: dict[str, Any], name: str) -> float:
+    """Starting value of a two-stage slider: the model's own, else its pitcher weight."""
+    value = start.get(name)
+    return float(start["pitcher_weight"] if value is None else value)
 
 
 def _season_words(seasons: Any) -> str:

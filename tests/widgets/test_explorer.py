@@ -363,3 +363,74 @@ def test_whiskers_follow_the_side_labels_not_the_row_order(explorer):
     np.testing.assert_array_equal(got[["low", "high"]].to_numpy(), want[["low", "high"]].to_numpy())
     pitcher = got[got["side"] == "pitcher"].set_index("outcome")
     np.testing.assert_allclose(pitcher.loc[list(OUTCOMES), "low"], est.side_intervals.loc[("pitcher", "lo"), list(OUTCOMES)])
+
+
+def _two_stage_rows_match(ex, first, in_play):
+    """The matchup bars against the model itself, built with explicit two-stage weights."""
+    from matchup_widgets.model import MatchupModel
+
+    s = ex.current_settings()
+    assert (s["method"], s["first_weight"], s["in_play_weight"]) == ("two-stage", first, in_play)
+    c = ex.controls
+    model = MatchupModel(
+        method="two-stage", first_weight=first, in_play_weight=in_play,
+        batter_prior_pa=s["batter_prior_pa"], pitcher_prior_pa=s["pitcher_prior_pa"],
+        basis=s["basis"], seasons=s["seasons"], contact_model=ex.model.contact_model,
+    ).fit(ex.pas)
+    side = c["platoon"].value
+    est = model.predict(c["batter"].value, c["pitcher"].value, batter_hand=None if side == "auto" else side)
+    rows = _matchup_rows(ex)
+    got = np.array([rows[o]["probability"] for o in OUTCOMES])
+    np.testing.assert_allclose(got, est.probabilities.loc[list(OUTCOMES)].to_numpy(), rtol=1e-12)
+
+
+def test_two_stage_sliders_feed_the_model(explorer):
+    ex = explorer
+    c = ex.controls
+    ex.apply_settings(basis="observed", seasons=ex.seasons_all)
+    c["method"].value = "linear"
+    # outside the two-stage blend its sliders are hidden and its weights are not settings
+    assert c["first_weight"].layout.display == "none" and c["in_play_weight"].layout.display == "none"
+    assert c["pitcher_weight"].layout.display is None
+    assert ex.current_settings()["first_weight"] is None
+    c["method"].value = "two-stage"  # as the browser would
+    assert c["pitcher_weight"].layout.display == "none"
+    assert c["first_weight"].layout.display is None and c["in_play_weight"].layout.display is None
+    assert not c["first_weight"].continuous_update and not c["in_play_weight"].continuous_update
+    c["first_weight"].value = 0.8
+    assert ex.status.last_error is None, ex.status.widget.value
+    _two_stage_rows_match(ex, 0.8, c["in_play_weight"].value)
+    before = _matchup_rows(ex)
+    c["in_play_weight"].value = 0.15
+    assert ex.status.last_error is None, ex.status.widget.value
+    assert _matchup_rows(ex) != before
+    _two_stage_rows_match(ex, 0.8, 0.15)
+    # the single weight no longer moves anything under this blend
+    before = _matchup_rows(ex)
+    ex.apply_settings(pitcher_weight=0.05)
+    assert _matchup_rows(ex) == before
+    assert ex.estimate.settings["first_weight"] == 0.8
+    c["method"].value = "linear"
+
+
+def test_two_stage_settings_round_trip_in_one_update(explorer, monkeypatch):
+    ex = explorer
+    calls = []
+    inner = ex._coalescer._refresh
+    monkeypatch.setattr(ex._coalescer, "_refresh", lambda: (calls.append(1), inner())[1])
+    ex.controls["method"].value = "linear"
+    calls.clear()
+    ex.apply_calibration({"method": "two-stage", "first_weight": 0.3, "in_play_weight": 0.7,
+                          "batter_prior_pa": 200.0, "pitcher_prior_pa": 50.0, "brier": 0.0812})
+    assert len(calls) == 1
+    settings = ex.current_settings()
+    assert (settings["method"], settings["first_weight"], settings["in_play_weight"]) == ("two-stage", 0.3, 0.7)
+    assert (settings["batter_prior_pa"], settings["pitcher_prior_pa"]) == (200.0, 50.0)
+    assert "first stage" in ex.status.widget.value and "0.0812" in ex.status.widget.value
+    _assert_matches_model(ex)
+    calls.clear()
+    ex.apply_settings(**settings)  # the explorer's own settings change nothing
+    assert ex.current_settings() == settings
+    with pytest.raises(ValueError, match="odds-ratio"):
+        ex.apply_calibration({"method": "odds-ratio", "batter_prior_pa": 1.0, "pitcher_prior_pa": 1.0})
+    ex.controls["method"].value = "linear"
