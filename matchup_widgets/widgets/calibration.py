@@ -115,6 +115,7 @@ class CalibrationLab(DataPanel):
         self.surface_y = W.ToggleButtons(options=list(_SURFACE_Y), value="Batter prior (PA)", description="Rows")
         self.send_method = W.Dropdown(
             options=[("Weighted mix of rates (fitted weight and priors)", "linear"),
+                     ("Two-stage (fitted weight per stage and priors)", "two-stage"),
                      ("Odds ratio (fitted priors)", "odds-ratio")],
             value="linear", description="Send", style=label_style(), layout=W.Layout(width="420px"),
         )
@@ -157,8 +158,9 @@ class CalibrationLab(DataPanel):
                 section("Blend methods compared", self.methods_chart),
                 section("Reliability per outcome", self.reliability_chart),
                 section("Use the fitted settings", self.send_method, W.HBox([self.apply_button, self.applied]),
-                        note="The weighted mix is fitted in closed form; the odds-ratio blend has no weight, "
-                        "only its best prior sizes. Compare their Brier scores above."),
+                        note="The weighted mix is fitted in closed form; the two-stage blend fits one weight per "
+                        "stage; the odds-ratio blend has no weight, only its best prior sizes. "
+                        "Compare their Brier scores above."),
                 W.HBox([self.csv_button, self.downloads]),
                 self.caution,
             ]
@@ -199,8 +201,10 @@ class CalibrationLab(DataPanel):
     def settings(self, method: str | None = None) -> dict[str, Any]:
         """The settings the last fit chose for ``method`` (default: the "Send" choice).
 
-        ``linear``: the fitted pitcher weight and prior sizes; ``odds-ratio``: that method's
-        best prior sizes from the method comparison (the weight is kept for reference).
+        ``linear``: the fitted pitcher weight and prior sizes; ``two-stage``: that blend's
+        fitted ``first_weight``, ``in_play_weight`` and prior sizes
+        (``CalibrationResult.model_settings("two-stage")``); ``odds-ratio``: that method's
+        best prior sizes from the method comparison. The linear weight is kept for reference.
         """
         if self.result_ is None:
             msg = "no fit yet: click 'Fit on held-out games' (or call fit()) first."
@@ -218,8 +222,12 @@ class CalibrationLab(DataPanel):
             row = r.methods.set_index("method").loc["odds-ratio"]
             out |= {"method": "odds-ratio", "batter_prior_pa": float(row["batter_prior_pa"]),
                     "pitcher_prior_pa": float(row["pitcher_prior_pa"])}
+        elif method == "two-stage":
+            fitted = r.model_settings("two-stage")
+            out |= {k: fitted[k] for k in ("method", "first_weight", "in_play_weight",
+                                           "batter_prior_pa", "pitcher_prior_pa")}
         elif method != "linear":
-            msg = f"method must be 'linear' or 'odds-ratio' to send; got {method!r}."
+            msg = f"method must be 'linear', 'two-stage' or 'odds-ratio' to send; got {method!r}."
             raise ValueError(msg)
         return out
 
@@ -237,9 +245,10 @@ class CalibrationLab(DataPanel):
             raise RuntimeError(msg)
         sent = self.settings()
         if self.explorer is not None:
-            if sent["method"] == "linear" and hasattr(self.explorer, "apply_calibration"):
-                # the explorer sets blend, weight and priors in one update and notes the Brier score
-                self.explorer.apply_calibration(sent | {"brier": self.result_.brier})
+            if sent["method"] in ("linear", "two-stage") and hasattr(self.explorer, "apply_calibration"):
+                # the explorer sets blend, weight(s) and priors in one update and notes the Brier score
+                brier = self.result_.two_stage["brier"] if sent["method"] == "two-stage" else self.result_.brier
+                self.explorer.apply_calibration(sent | {"brier": brier})
             else:
                 self.explorer.apply_settings(**sent)
         for panel in self.targets:
@@ -247,7 +256,12 @@ class CalibrationLab(DataPanel):
         where = "the explorer" if self.explorer is not None else ""
         if self.targets:
             where += (" and " if where else "") + f"{len(self.targets)} other panel(s)"
-        weight = f"pitcher weight {sent['pitcher_weight']:.2f}, " if sent["method"] == "linear" else ""
+        weight = ""
+        if sent["method"] == "linear":
+            weight = f"pitcher weight {sent['pitcher_weight']:.2f}, "
+        elif sent["method"] == "two-stage":
+            weight = (f"pitcher weight {sent['first_weight']:.2f} first stage and "
+                      f"{sent['in_play_weight']:.2f} on balls in play, ")
         self.applied.value = (
             f"Sent to {where}: {html.escape(sent['method'])} blend, {weight}"
             f"batter prior {sent['batter_prior_pa']:g} PA, pitcher prior {sent['pitcher_prior_pa']:g} PA, "

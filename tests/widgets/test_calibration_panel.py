@@ -202,3 +202,30 @@ def test_a_receiver_that_fails_is_reported_here_too(pas, fitted):
     finally:
         lab.targets.remove(failing)
         lab.status.clear()
+
+
+def test_two_stage_choice_sets_both_sliders_and_the_method(pas, fitted):
+    from matchup_widgets.widgets._explorer import MatchupExplorer
+
+    lab, _ = fitted
+    explorer = MatchupExplorer(pas)
+    lab.explorer = explorer
+    lab.send_method.value = "two-stage"  # as the browser would
+    try:
+        lab.apply_button.click()
+    finally:
+        lab.send_method.value = "linear"
+    assert lab.status.last_error is None, lab.status.widget.value
+    want = lab.result_.model_settings("two-stage")
+    c = explorer.controls
+    assert c["method"].value == "two-stage"
+    assert c["first_weight"].value == pytest.approx(want["first_weight"], abs=0.0005)
+    assert c["in_play_weight"].value == pytest.approx(want["in_play_weight"], abs=0.0005)
+    assert explorer.current_settings()["batter_prior_pa"] == round(want["batter_prior_pa"])
+    assert c["first_weight"].layout.display is None and c["pitcher_weight"].layout.display == "none"
+    assert f"{lab.result_.two_stage['brier']:.4f}" in explorer.status.widget.value
+    assert "first stage" in lab.applied.value
+    assert explorer.status.last_error is None
+    est = explorer.estimate
+    assert (est.settings["first_weight"], est.settings["in_play_weight"]) == (
+        pytest.approx(want["first_weight"]), pytest.approx(want["in_play_weight"]))
