@@ -59,8 +59,8 @@ class MatchupExplorer(DataPanel):
     """The screen an analyst opens first: one batter against one pitcher.
 
     Controls (``controls``): searchable batter and pitcher pickers, the platoon side
-    (automatic or a what-if), season range, blend method, pitcher weight, batter and pitcher
-    prior sizes, observed or contact-expected basis, a button that applies fitted settings,
+    (automatic or a what-if), season range, blend method, pitcher weight (under the two-stage
+    blend two of them: first stage and balls in play), batter and pitcher prior sizes, observed or contact-expected basis, a button that applies fitted settings,
     and the base-out state of the run context. Outputs (``charts``, ``headline``) update in
     place whenever a control moves; errors appear in ``status`` and never stop the panel.
 
@@ -71,8 +71,8 @@ class MatchupExplorer(DataPanel):
     model : MatchupModel, optional
         A model (fitted on ``pas`` or not); its settings are the starting values.
     calibration : CalibrationResult or mapping, optional
-        Fitted settings (``pitcher_weight``, ``batter_prior_pa``, ``pitcher_prior_pa``) the
-        "use fitted settings" button applies; without it the button fits them on held-out
+        Fitted settings (``pitcher_weight``, ``batter_prior_pa``, ``pitcher_prior_pa``, or a
+        ``model_settings("two-stage")`` mapping) the "use fitted settings" button applies; without it the button fits them on held-out
         games first.
     batter, pitcher : str, optional
         Starting players (id or name); by default those with the most plate appearances.
