@@ -12,7 +12,6 @@ from numpy.testing import assert_allclose
 from matchup_widgets.data import OUTCOMES, load_pas
 from matchup_widgets.model import (
     CalibrationResult,
-    blend,
     brier_score,
     calibrate,
     linear_blend,
@@ -163,26 +162,10 @@ def test_bad_options_raise_with_advice(pas):
         calibrate(pas, score=pas, season_forward=True, progress=False)
 
 
-def test_fitted_settings_reproduce_the_matchup_model(pas, result):
+def test_fitted_settings_reproduce_the_matchup_model(pas, result, cells_match_model):
     # The cells are scored with the same prediction the estimator makes: the batter's and the
     # pitcher's split counts shrunk toward the split's league, then blended.
-    from matchup_widgets.model import MatchupModel
-    from matchup_widgets.model._calibrate import _prepare, _shrunk_cells
-
-    frame = pas.frame
-    fit = frame.loc[~split_games(frame["game_id"].to_numpy(), holdout_share=0.25, seed=0)]
-    prep = _prepare(pas, None, holdout_share=0.25, seed=0, season_forward=False, basis="observed")
-    for method in ("linear", "two-stage", "odds-ratio"):
-        settings = result.model_settings(method)
-        model = MatchupModel(**settings).fit(fit)
-        b = _shrunk_cells(prep, "batter", [settings["batter_prior_pa"]])[0]
-        q = _shrunk_cells(prep, "pitcher", [settings["pitcher_prior_pa"]])[0]
-        kw = {k: v for k, v in settings.items() if k not in ("method", "basis", "batter_prior_pa", "pitcher_prior_pa")}
-        p = blend(method, b, q, prep.league, **kw)
-        for i in np.linspace(0, len(prep.cells) - 1, 8).astype(int):
-            cell = prep.cells.iloc[i]
-            est = model.predict(cell["batter_id"], cell["pitcher_id"], batter_hand=cell["batter_hand"])
-            assert_allclose(est.distributions.loc["matchup", list(OUTCOMES)].to_numpy(float), p[i], rtol=1e-9)
+    cells_match_model(pas, result, basis="observed", n_cells=8)
 
 
 def test_separate_score_table_sharing_games_with_the_data_is_refused(pas):

@@ -11,7 +11,7 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from matchup_widgets.data import OUTCOMES, load_pas
+from matchup_widgets.data import load_pas
 from matchup_widgets.data.demo import demo_path, true_probabilities
 from matchup_widgets.model import brier_score, calibrate, split_games
 
@@ -75,32 +75,13 @@ def test_contact_basis_fits_on_contact_expected_counts():
     assert contact.brier_baselines["league"] == pytest.approx(observed.brier_baselines["league"], rel=1e-12)
 
 
-def test_contact_basis_scores_the_estimators_own_predictions():
+def test_contact_basis_scores_the_estimators_own_predictions(cells_match_model):
     # What calibrate scores on the contact basis must be what MatchupModel(basis="contact")
     # predicts from the same fitting games: the same per-season contact counts and the same
     # shrink target (the league of the split on the contact basis), for every method.
     from matchup_widgets.data.demo import make_demo_league
-    from matchup_widgets.model import MatchupModel, blend
-    from matchup_widgets.model._calibrate import _prepare, _shrunk_cells
 
     league = make_demo_league(seed=3, n_seasons=2, n_teams=4, n_games=30)
     pas = load_pas(league.pas)
     result = calibrate(pas, basis="contact", priors=(0, 100), n_boot=10, progress=False)
-    frame = pas.frame
-    fit = frame.loc[~split_games(frame["game_id"].to_numpy(), holdout_share=0.25, seed=0)]
-    prep = _prepare(pas, None, holdout_share=0.25, seed=0, season_forward=False, basis="contact")
-    codes = list(OUTCOMES)
-    for method in ("linear", "odds-ratio", "two-stage"):
-        settings = result.model_settings(method)
-        model = MatchupModel(**settings).fit(fit)
-        b = _shrunk_cells(prep, "batter", [settings["batter_prior_pa"]])[0]
-        q = _shrunk_cells(prep, "pitcher", [settings["pitcher_prior_pa"]])[0]
-        kw = {k: v for k, v in settings.items() if k not in ("method", "basis", "batter_prior_pa", "pitcher_prior_pa")}
-        p = blend(method, b, q, prep.league, **kw)
-        for i in np.linspace(0, len(prep.cells) - 1, 6).astype(int):
-            cell = prep.cells.iloc[i]
-            est = model.predict(cell["batter_id"], cell["pitcher_id"], batter_hand=cell["batter_hand"])
-            np.testing.assert_allclose(est.distributions.loc["matchup", codes].to_numpy(float), p[i], rtol=1e-9,
-                                       atol=1e-12, err_msg=method)
-            np.testing.assert_allclose(est.distributions.loc["league", codes].to_numpy(float), prep.league[i],
-                                       rtol=1e-9, err_msg=method)
+    cells_match_model(pas, result, basis="contact", n_cells=6, atol=1e-12)
