@@ -17,6 +17,7 @@ import altair as alt
 import pandas as pd
 
 from matchup_widgets.charts._theme import CAUTION
+from matchup_widgets.data._files import write_bytes_atomic, write_text_atomic
 
 #: File formats a card can be written in, chosen by the file's suffix.
 CARD_FORMATS: tuple[str, ...] = ("html", "png", "svg")
@@ -166,11 +167,11 @@ def write_card(
     out = Path(path)
     fmt = card_format(out)
     rendered = render_card(chart, fmt, title=title, tables=tables)
-    out.parent.mkdir(parents=True, exist_ok=True)
+    # a failed or interrupted write leaves the previous card (or none), never half of one
     if isinstance(rendered, bytes):
-        out.write_bytes(rendered)
+        write_bytes_atomic(out, rendered)
     else:
-        out.write_text(rendered, encoding="utf-8")
+        write_text_atomic(out, rendered)
     return out
 
 
@@ -189,7 +190,7 @@ def write_tables(tables: Mapping[str, pd.DataFrame], folder: str | Path, *, pref
     paths = []
     for name, table in tables.items():
         path = root / f"{prefix}{name}.csv"
-        table.to_csv(path, index=False)
+        write_text_atomic(path, table.to_csv(index=False))
         paths.append(path)
     return paths
 

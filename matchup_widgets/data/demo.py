@@ -63,6 +63,7 @@ recorded values are rounded to 0.1.
 
 from __future__ import annotations
 
+import contextlib
 import os
 from dataclasses import dataclass
 from pathlib import Path
@@ -395,21 +396,27 @@ def write_demo_league(
     """
     import pyarrow.parquet as pq
 
+    from ._files import atomic_path, folder_lock, remove_stale_partials
+
     out = Path(out_dir)
     out.mkdir(parents=True, exist_ok=True)
     league = make_demo_league(seed=seed, n_seasons=n_seasons, n_teams=n_teams, n_games=n_games)
-    paths = []
-    for name, table in zip(DEMO_FILES, _arrow_tables(league)):
-        path = out / name
-        pq.write_table(
-            table,
-            path,
-            compression="zstd",
-            compression_level=9,
-            use_dictionary=True,
-            write_statistics=True,
-        )
-        paths.append(path)
+    paths = [out / name for name in DEMO_FILES]
+    # All three files are written to temporary files first and renamed only when every one
+    # is complete, under a lock on the folder: an interrupted run leaves the previous league
+    # (or none), and two runs into one folder cannot mix one seed's files with another's.
+    with folder_lock(out), contextlib.ExitStack() as stack:
+        remove_stale_partials(out, DEMO_FILES)  # left by a run that was killed mid-write
+        for path, table in zip(paths, _arrow_tables(league)):
+            tmp = stack.enter_context(atomic_path(path))
+            pq.write_table(
+                table,
+                tmp,
+                compression="zstd",
+                compression_level=9,
+                use_dictionary=True,
+                write_statistics=True,
+            )
     return paths
 
 
