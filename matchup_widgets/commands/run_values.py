@@ -149,13 +149,14 @@ def run(args: argparse.Namespace) -> int:
     except (DataError, ValueError, OSError) as exc:
         return fail(str(exc), as_json=args.json)
     payload = {
-        "run_expectancy": [[round(float(v), 6) for v in row] for row in re],
-        "linear_weights": {k: round(float(v), 6) for k, v in lw.items()},
-        "woba_weights": {k: round(float(v), 6) for k, v in weights.items()},
-        "woba_scale": round(scale, 6),
-        "runs_per_inning": round(per_inning, 6),
-        "runs_per_9": round(9 * per_inning, 6),
-        "rates": {k: round(float(v), 8) for k, v in rates.items()},
+        # Full precision: exact closed forms come out exact; the text output rounds for reading.
+        "run_expectancy": [[float(v) for v in row] for row in re],
+        "linear_weights": {k: float(v) for k, v in lw.items()},
+        "woba_weights": {k: float(v) for k, v in weights.items()},
+        "woba_scale": float(scale),
+        "runs_per_inning": float(per_inning),
+        "runs_per_9": float(9 * per_inning),
+        "rates": {k: float(v) for k, v in rates.items()},
         "advancement": info,
     }
     emit(payload, as_json=args.json, text=_text(payload))

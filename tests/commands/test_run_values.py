@@ -69,6 +69,20 @@ def test_walk_or_out_batter_scores_the_closed_form(capsys, tmp_path):
     assert code == 2 and "a rates file has none" in d["error"]
 
 
+def test_json_keeps_full_precision_for_an_exact_closed_form(capsys, tmp_path):
+    # Walk 1/4, strike out 3/4: walks before the third out W ~ NegBin(3, 3/4), runs forced in
+    # max(W - 3, 0), mean E[W] - 3 + 3 P(W=0) + 2 P(W=1) + P(W=2)
+    # = 1 - 3 + 81/64 + 162/256 + 162/1024 = 29/512 = 0.056640625 (hand sum, exact in binary).
+    # Rounded to 6 decimals it would print 0.056641, 3.75e-7 off.
+    path = tmp_path / "quarter.json"
+    path.write_text(json.dumps({"K": 0.75, "BB": 0.25}))
+    code, d = _run_json(capsys, "--rates", path)
+    assert code == 0
+    assert d["runs_per_inning"] == pytest.approx(29 / 512, abs=1e-14)
+    assert d["run_expectancy"][0][0] == pytest.approx(29 / 512, abs=1e-14)
+    assert d["runs_per_9"] == pytest.approx(9 * 29 / 512, abs=1e-13)
+
+
 def test_text_output_for_people(capsys, rates_file):
     assert main(["run-values", "--rates", str(rates_file)]) == 0
     out = capsys.readouterr().out

@@ -46,7 +46,7 @@ def test_contact_model_beats_the_bucket_baseline(demo_model):
         f"{s['grid']:.4f}, bucket-lookup baseline {s['bucket_baseline']:.4f}; chosen: {demo_model.kind_}"
     )
     assert s[demo_model.kind_] < s["bucket_baseline"]
-    assert s[demo_model.kind_] == min(s["boosting"], s["grid"])
+    # Whether the choice holds on games not used to make it: test_held_out.py.
 
 
 def test_home_run_chance_rises_with_exit_velocity_at_25_to_30_degrees(demo_model):
@@ -90,7 +90,7 @@ def test_tier_cut_points_are_reported(demo_pas, demo_model):
     print(f"\ntier cut points (run value per ball, {tiers.weights_source}):", tiers.cut_points.round(4).tolist())
     print(tiers.table[["label", "n", "share", "mean_run_value", "HR", "1B", "GB_OUT"]].round(3).to_string())
     assert np.all(np.diff(tiers.cut_points) > 0)
-    assert np.all(np.diff(tiers.table["mean_run_value"]) > 0)
+    # The tiers' run value ordered on games not used to cut them: test_held_out.py.
 
 
 def test_contact_basis_counts_fallback(demo_pas, demo_model):
