@@ -610,6 +610,10 @@ def _check_settings(params: dict[str, Any]) -> dict[str, Any]:
     if not (isinstance(out["n_draws"], (int, np.integer)) and out["n_draws"] >= 10):
         msg = f"n_draws must be a whole number >= 10; got {out['n_draws']!r}."
         raise ValueError(msg)
+    seed = out["seed"]
+    if not (isinstance(seed, (int, np.integer)) and not isinstance(seed, bool) and seed >= 0):
+        msg = f"seed must be a whole number >= 0 (it fixes the interval draws); got {seed!r}."
+        raise ValueError(msg)
     out["seasons"] = season_range(out["seasons"])
     return out
 

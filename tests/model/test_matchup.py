@@ -73,6 +73,15 @@ def test_init_stores_settings_unchanged_and_checks_them_at_fit(pas):
         MatchupModel().predict("bat00", "pit00")
 
 
+@pytest.mark.parametrize("seed", [0.3, 1.5, float("inf"), b"1", -1, True, "7", None])
+def test_a_seed_that_is_not_a_whole_number_is_our_error(fitted, seed):
+    # numpy's SeedSequence raised its own TypeError for these; -1 gave a message without the name
+    with pytest.raises(ValueError, match=r"seed must be a whole number >= 0 .*got"):
+        fitted.with_settings(seed=seed)
+    with pytest.raises(ValueError, match=r"seed must be a whole number >= 0"):
+        fitted.with_settings(seed=3).set_params(seed=seed)
+
+
 def test_league_counts_match_the_data_layer(fitted, pas):
     mask = fitted.batter_counts_.season_mask(None)
     cube = fitted.batter_counts_.league(mask).reshape(4, 9)
