@@ -16,6 +16,8 @@ from ._blend import METHODS, blend
 from ._distributions import CountCube, split_label
 from ._empirical_bayes import prior_from_counts
 from ._intervals import matchup_interval
+from ._settings import _nonnegative
+from ._settings import _unit as _settings_unit
 from ._shrink import shrink
 from ._summary import SUMMARY_COLUMNS, run_weights, summary_array
 
@@ -555,27 +557,7 @@ def _check_names(params: dict[str, Any]) -> None:
 
 
 def _unit(value: Any, name: str, *, optional: bool = False) -> float | None:
-    if value is None and optional:
-        return None
-    try:
-        out = float(value)
-    except (TypeError, ValueError):
-        out = float("nan")
-    if not 0.0 <= out <= 1.0:
-        msg = f"{name} must be a number in [0, 1] (0 = all batter, 1 = all pitcher); got {value!r}."
-        raise ValueError(msg)
-    return out
-
-
-def _nonnegative(value: Any, name: str) -> float:
-    try:
-        out = float(value)
-    except (TypeError, ValueError):
-        out = float("nan")
-    if not (math.isfinite(out) and out >= 0):
-        msg = f"{name} must be a finite number >= 0; got {value!r}."
-        raise ValueError(msg)
-    return out
+    return None if value is None and optional else _settings_unit(value, name)
 
 
 def _check_settings(params: dict[str, Any]) -> dict[str, Any]:
