@@ -1,7 +1,7 @@
 """The matchup model: platoon-split distributions, shrinkage, blends, intervals, summaries."""
 
-from ._blend import METHODS, blend, linear_blend, odds_ratio_blend, two_stage_blend
-from ._calibrate import CalibrationResult, calibrate
+from ._blend import blend, linear_blend, odds_ratio_blend, two_stage_blend
+from ._calibrate import CalibrationResult, FittedSettings, calibrate
 from ._calibrate_split import CELL_KEYS, collapse_cells, split_games, split_last_season
 from ._calibrate_surface import (
     DEFAULT_PRIOR_GRID,
@@ -17,7 +17,16 @@ from ._empirical_bayes import empirical_bayes_prior
 from ._intervals import INTERVAL_FLOOR, matchup_draws, matchup_interval, posterior_draws
 from ._scores import brier_score, log_loss, reliability_table
 from ._run_value import estimate_draws, run_value_interval
-from ._matchup import BASES, MatchupEstimate, MatchupModel
+from ._matchup import MatchupEstimate, MatchupModel
+from ._settings import (
+    BASES,
+    METHOD_WEIGHTS,
+    METHODS,
+    PRIOR_GROUPS,
+    SETTING_NAMES,
+    BlendSettings,
+    read_settings,
+)
 from ._shrink import shrink
 from ._summary import (
     FALLBACK_WOBA_SCALE,
@@ -29,6 +38,12 @@ from ._summary import (
 
 __all__ = [
     "BASES",
+    "METHOD_WEIGHTS",
+    "PRIOR_GROUPS",
+    "SETTING_NAMES",
+    "BlendSettings",
+    "FittedSettings",
+    "read_settings",
     "MatchupEstimate",
     "MatchupModel",
     "estimate_draws",

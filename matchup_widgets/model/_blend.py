@@ -13,9 +13,7 @@ import numpy as np
 from matchup_widgets.data import IN_PLAY, OUTCOMES
 
 from ._arrays import as_probabilities, as_weight, normalise, relabel
-
-#: Blend methods accepted by :func:`blend` and ``MatchupModel(method=...)``.
-METHODS: tuple[str, ...] = ("linear", "odds-ratio", "two-stage")
+from ._settings import METHODS
 
 _IN_PLAY_IDX = np.array([OUTCOMES.index(c) for c in IN_PLAY])
 _NOT_IN_PLAY_IDX = np.array([i for i, c in enumerate(OUTCOMES) if c not in IN_PLAY])

@@ -31,14 +31,32 @@ from ._calibrate_surface import (
     _two_stage_grid,
 )
 from ._scores import brier_score, log_loss, reliability_table
+from ._settings import BASES, METHODS, BlendSettings
 
-__all__ = ["CalibrationResult", "calibrate"]
-
-#: Where each side's fitting distributions come from: observed outcomes, or contact-expected
-#: outcomes (balls in play replaced by their modelled outcome probabilities).
-_BASES: tuple[str, ...] = ("observed", "contact")
+__all__ = ["CalibrationResult", "FittedSettings", "calibrate"]
 
 _SPLIT_KEYS = ["batter_hand", "pitcher_hand"]
+
+
+@dataclass(frozen=True)
+class FittedSettings:
+    """One method's best settings found on held-out PAs, with their held-out scores.
+
+    Attributes
+    ----------
+    settings : BlendSettings
+        The fitted settings (``MatchupModel(settings)`` predicts with them).
+    brier, log_loss : float
+        Held-out scores at those settings (lower is better).
+    """
+
+    settings: BlendSettings
+    brier: float
+    log_loss: float
+
+    def to_dict(self) -> dict[str, Any]:
+        """The settings' own dict plus ``brier`` and ``log_loss``."""
+        return {**self.settings.to_dict(), "brier": self.brier, "log_loss": self.log_loss}
 
 
 @dataclass(frozen=True)
@@ -80,6 +98,9 @@ class CalibrationResult:
         ``"games"``, ``"season-forward"`` or ``"separate"``.
     basis : str
         ``"observed"`` or ``"contact"``.
+    fitted : dict
+        Method -> :class:`FittedSettings` (as scikit-learn's ``best_params_``, one per method);
+        :meth:`best_settings` picks one.
     """
 
     pitcher_weight: float
@@ -101,6 +122,20 @@ class CalibrationResult:
     n_cells: int
     split: str
     basis: str
+    fitted: dict[str, FittedSettings] = field(default_factory=dict, repr=False)
+
+    @property
+    def best_method(self) -> str:
+        """The method with the lowest held-out Brier score (the first listed on a tie)."""
+        return min(METHODS, key=lambda m: (self.fitted[m].brier, METHODS.index(m)))
+
+    def best_settings(self, method: str | None = None) -> BlendSettings:
+        """A method's fitted settings; the best method's (by held-out Brier) when None."""
+        chosen = self.best_method if method is None else method
+        if chosen not in self.fitted:
+            msg = f"unknown method {chosen!r}; choose one of {list(METHODS)}."
+            raise ValueError(msg)
+        return self.fitted[chosen].settings
 
     def model_settings(self, method: str = "linear") -> dict[str, Any]:
         """Settings for ``MatchupModel(**settings)`` (or ``with_settings``) that reproduce a fit.
@@ -115,22 +150,9 @@ class CalibrationResult:
         dict
             ``method``, its weights, ``batter_prior_pa``, ``pitcher_prior_pa`` and ``basis``.
         """
-        if method == "linear":
-            out = {"method": "linear", "pitcher_weight": self.pitcher_weight,
-                   "batter_prior_pa": self.batter_prior_pa, "pitcher_prior_pa": self.pitcher_prior_pa}
-        elif method == "two-stage":
-            ts = self.two_stage
-            out = {"method": "two-stage", "first_weight": ts["first_weight"], "in_play_weight": ts["in_play_weight"],
-                   "batter_prior_pa": ts["batter_prior_pa"], "pitcher_prior_pa": ts["pitcher_prior_pa"]}
-        elif method == "odds-ratio":
-            row = self.methods.set_index("method").loc["odds-ratio"]
-            out = {"method": "odds-ratio", "batter_exponent": 1.0, "pitcher_exponent": 1.0,
-                   "batter_prior_pa": float(row["batter_prior_pa"]), "pitcher_prior_pa": float(row["pitcher_prior_pa"])}
-        else:
-            msg = f"unknown method {method!r}; choose one of 'linear', 'odds-ratio', 'two-stage'."
-            raise ValueError(msg)
-        out["basis"] = self.basis
-        return out
+        settings = self.best_settings(method)
+        return {"method": settings.method, **settings.method_weights(), "batter_prior_pa": settings.batter_prior_pa,
+                "pitcher_prior_pa": settings.pitcher_prior_pa, "basis": settings.basis}
 
     def to_dict(self) -> dict[str, Any]:
         """Plain JSON-ready dict: the ``fit`` command's keys first, then the extras."""
@@ -153,6 +175,7 @@ class CalibrationResult:
             "n_cells": self.n_cells,
             "split": self.split,
             "basis": self.basis,
+            "settings": {"best": self.best_method, **{m: f.to_dict() for m, f in self.fitted.items()}},
         }
         return _plain(out)
 
@@ -189,7 +212,7 @@ def _side_counts(fit: Any, role: str, basis: str) -> pd.DataFrame:
     if basis == "contact":
         from ._matchup import _contact_counts
 
-        table = _contact_counts(fit, role=role, seasons=None)
+        table = _contact_counts(fit, role=role)
         keys = ["player_id", *_SPLIT_KEYS]
         return table.groupby(keys, sort=True, observed=True, as_index=False)[[*OUTCOMES, "pa"]].sum()
     return outcome_counts(fit, role=role)
@@ -355,7 +378,7 @@ def calibrate(
     n_boot: int = 200,
     interval_level: float = 0.9,
     n_bins: int = 10,
-    progress: bool = True,
+    progress: bool = False,
 ) -> CalibrationResult:
     """Fit the linear blend's pitcher weight and both prior sizes on held-out PAs.
 
@@ -385,7 +408,7 @@ def calibrate(
         Coverage of the weight interval.
     n_bins : int, default 10
         Bins per outcome of the reliability table.
-    progress : bool, default True
+    progress : bool, default False
         Report progress with tqdm.auto (a bar in a notebook, a line in a terminal).
 
     Returns
@@ -419,8 +442,8 @@ def calibrate(
     """
     from tqdm.auto import tqdm
 
-    if basis not in _BASES:
-        msg = f"basis must be one of {list(_BASES)}; got {basis!r}."
+    if basis not in BASES:
+        msg = f"basis must be one of {list(BASES)}; got {basis!r}."
         raise ValueError(msg)
     if not 0.0 < float(interval_level) < 1.0:
         msg = f"interval_level must lie strictly between 0 and 1; got {interval_level}."
@@ -541,7 +564,25 @@ def calibrate(
         n_cells=int(len(cells)),
         split=prep.split,
         basis=basis,
+        fitted=_fitted_settings(methods, w_best, two_stage, basis),
     )
+
+
+def _fitted_settings(methods: pd.DataFrame, w_best: float, two_stage: dict, basis: str) -> dict[str, FittedSettings]:
+    """Each method's best settings and scores as FittedSettings (one shape for all methods)."""
+    weights = {
+        "linear": {"pitcher_weight": w_best},
+        "odds-ratio": {"batter_exponent": 1.0, "pitcher_exponent": 1.0},
+        "two-stage": {"first_weight": two_stage["first_weight"], "in_play_weight": two_stage["in_play_weight"]},
+    }
+    out = {}
+    for row in methods.itertuples(index=False):  # one row per method (three)
+        settings = BlendSettings(
+            method=row.method, batter_prior_pa=float(row.batter_prior_pa), pitcher_prior_pa=float(row.pitcher_prior_pa),
+            basis=basis, **weights[row.method],
+        )
+        out[row.method] = FittedSettings(settings, float(row.brier), float(row.log_loss))
+    return out
 
 
 def _baselines(a_, b_, c_, total, lg, y) -> dict[str, float]:

@@ -2,28 +2,24 @@
 
 from __future__ import annotations
 
-import inspect
 import math
+from collections.abc import Mapping
 from dataclasses import dataclass, field
 from typing import Any
 
 import numpy as np
 import pandas as pd
 
-from matchup_widgets.data import HANDS, OUTCOMES, DataError, season_range
+from matchup_widgets.data import HANDS, OUTCOMES, DataError
 
-from ._blend import METHODS, blend
+from ._blend import blend
 from ._distributions import CountCube, split_label
 from ._empirical_bayes import prior_from_counts
 from ._intervals import matchup_interval
-from ._settings import _nonnegative
-from ._settings import _unit as _settings_unit
+from ._settings import BASES, SETTING_DEFAULTS, SETTING_NAMES, BlendSettings, follow_pitcher_weight
 from ._shrink import shrink
 from ._summary import SUMMARY_COLUMNS, run_weights, summary_array
 
-#: Where the counts come from: observed outcomes, or balls in play replaced by their
-#: contact-expected outcome probabilities (the contact layer's model).
-BASES: tuple[str, ...] = ("observed", "contact")
 _CONTACT_KINDS: tuple[str, ...] = ("auto", "boosting", "grid")
 
 _CODES = pd.Index(list(OUTCOMES))
@@ -34,24 +30,6 @@ _COUNT_ROWS = pd.Index(["batter", "pitcher", "league"])
 _SIDE_INTERVAL_ROWS = pd.MultiIndex.from_product([_COUNT_ROWS, _LO_HI], names=["side", "bound"])
 _SUMMARY_ROWS = pd.Index(["matchup", "batter", "pitcher", "league"])
 _SUMMARY_COLS = pd.Index(list(SUMMARY_COLUMNS))
-
-_DEFAULTS: dict[str, Any] = {
-    "method": "linear",
-    "pitcher_weight": 0.5,
-    "batter_prior_pa": 200.0,
-    "pitcher_prior_pa": 200.0,
-    "first_weight": None,
-    "in_play_weight": None,
-    "batter_exponent": 1.0,
-    "pitcher_exponent": 1.0,
-    "basis": "observed",
-    "contact_model": None,
-    "seasons": None,
-    "interval": 0.8,
-    "n_draws": 2000,
-    "seed": 0,
-}
-
 
 @dataclass(frozen=True, eq=False)
 class MatchupEstimate:
@@ -89,7 +67,10 @@ class MatchupEstimate:
     suggested_prior_pa : pandas.DataFrame
         Empirical-Bayes prior sizes per outcome (rows) for ``batter`` and ``pitcher``.
     settings : dict
-        The model settings that produced the estimate.
+        The model settings that produced the estimate (JSON-ready: the blend settings, then
+        ``contact_model``, ``n_draws``, ``seed``).
+    blend_settings : BlendSettings
+        The same blend settings as one value (``describe()`` gives the sentence cards print).
     weights_source : str
         Where the wOBA and run weights came from.
     """
@@ -112,6 +93,7 @@ class MatchupEstimate:
     settings: dict[str, Any] = field(default_factory=dict)
     weights_source: str = ""
     side_intervals: pd.DataFrame | None = None
+    blend_settings: BlendSettings | None = None
 
     @property
     def split(self) -> str:
@@ -192,108 +174,137 @@ def _number(value: Any) -> float | int:
     return int(value) if value.is_integer() else value
 
 
+class _Setting:
+    """A model setting read as an attribute (``model.pitcher_weight``); assigning goes through set_params."""
+
+    def __set_name__(self, owner: type, name: str) -> None:
+        self.name = name
+
+    def __get__(self, obj: Any, owner: type | None = None) -> Any:
+        return self if obj is None else obj._params[self.name]
+
+    def __set__(self, obj: Any, value: Any) -> None:
+        obj.set_params(**{self.name: value})
+
+
 class MatchupModel:
     """Estimate batter-versus-pitcher outcome probabilities from platoon-split counts.
 
-    Settings are stored unchanged; :meth:`fit` aggregates the plate appearances once
-    into count arrays by player, season and split; :meth:`predict` shrinks each side toward
-    the league of the split, blends, and samples intervals, in a few milliseconds.
-    :meth:`with_settings` returns a model with other settings sharing the fitted counts.
+    The blend's settings are one :class:`BlendSettings` value (:attr:`settings`); the keyword
+    arguments are a convenience that builds it. They are stored unchanged and checked when the
+    model is used (scikit-learn's convention), so :meth:`get_params` returns what was given.
+    :meth:`fit` aggregates the plate appearances once into count arrays by player, season and
+    split; :meth:`predict` shrinks each side toward the league of the split, blends, and
+    samples intervals, in a few milliseconds. :meth:`with_settings` returns a model with other
+    settings sharing the fitted counts.
 
     Parameters
     ----------
-    method : {"linear", "odds-ratio", "two-stage"}
-        Blend method.
-    pitcher_weight : float in [0, 1]
-        Pitcher weight of the linear blend (and default of both two-stage weights).
-    batter_prior_pa, pitcher_prior_pa : float >= 0
-        League plate appearances of the same split added to each side (0 = raw rates).
-    first_weight, in_play_weight : float in [0, 1] or None
-        Two-stage pitcher weights; None uses ``pitcher_weight``.
-    batter_exponent, pitcher_exponent : float >= 0
-        Odds-ratio exponents (1, 1 is the generalised Log5).
-    basis : {"observed", "contact"}
-        Count observed outcomes, or replace balls in play by contact-expected outcomes.
+    settings : BlendSettings or mapping, optional
+        The blend's settings (e.g. ``CalibrationResult.best_settings("two-stage")`` or
+        :func:`read_settings` of a ``fit --json`` file). Keyword settings given with it
+        change it (:meth:`BlendSettings.replace`).
     contact_model : ContactModel, {"auto", "boosting", "grid"} or None
         The contact model behind ``basis="contact"``. None uses the dataset's own
         (:func:`matchup_widgets.contact.contact_model_for`, fitted once per dataset); a
         kind uses the dataset's own model of that kind; a fitted ``ContactModel`` is used
         as given (a dashboard passes the one its contact charts use, so both agree).
         Contact-basis counts are kept per contact model.
-    seasons : (int, int) or None
-        Inclusive season range; all seasons when None.
-    interval : float in (0, 1)
-        Central probability of the intervals.
     n_draws : int
         Posterior draws for the intervals.
     seed : int
         Seed of the interval draws (fixed so the same settings give the same intervals).
+    **blend_settings
+        Any field of :class:`BlendSettings` (``method``, ``pitcher_weight``, ``first_weight``,
+        ``in_play_weight``, ``batter_exponent``, ``pitcher_exponent``, ``batter_prior_pa``,
+        ``pitcher_prior_pa``, ``basis``, ``seasons``, ``interval``); the defaults are
+        BlendSettings' own.
 
     Examples
     --------
     >>> model = MatchupModel(pitcher_weight=0.4)
     >>> model.get_params()["pitcher_weight"], model.with_settings(method="odds-ratio").method
     (0.4, 'odds-ratio')
+    >>> model.settings.describe()
+    'linear blend, pitcher weight 0.40; priors batter 200 PA, pitcher 200 PA; observed basis; all seasons; 80% intervals'
     """
+
+    method = _Setting()
+    pitcher_weight = _Setting()
+    first_weight = _Setting()
+    in_play_weight = _Setting()
+    batter_exponent = _Setting()
+    pitcher_exponent = _Setting()
+    batter_prior_pa = _Setting()
+    pitcher_prior_pa = _Setting()
+    basis = _Setting()
+    seasons = _Setting()
+    interval = _Setting()
+    model_error = _Setting()
+    contact_model = _Setting()
+    n_draws = _Setting()
+    seed = _Setting()
 
     def __init__(
         self,
+        settings: BlendSettings | Mapping[str, Any] | None = None,
         *,
-        method: str = "linear",
-        pitcher_weight: float = 0.5,
-        batter_prior_pa: float = 200.0,
-        pitcher_prior_pa: float = 200.0,
-        first_weight: float | None = None,
-        in_play_weight: float | None = None,
-        batter_exponent: float = 1.0,
-        pitcher_exponent: float = 1.0,
-        basis: str = "observed",
         contact_model: Any = None,
-        seasons: tuple[int, int] | None = None,
-        interval: float = 0.8,
         n_draws: int = 2000,
         seed: int = 0,
+        **blend_settings: Any,
     ) -> None:
-        self.method = method
-        self.pitcher_weight = pitcher_weight
-        self.batter_prior_pa = batter_prior_pa
-        self.pitcher_prior_pa = pitcher_prior_pa
-        self.first_weight = first_weight
-        self.in_play_weight = in_play_weight
-        self.batter_exponent = batter_exponent
-        self.pitcher_exponent = pitcher_exponent
-        self.basis = basis
-        self.contact_model = contact_model
-        self.seasons = seasons
-        self.interval = interval
-        self.n_draws = n_draws
-        self.seed = seed
+        _check_names(blend_settings)
+        if settings is None:
+            blend = {**SETTING_DEFAULTS, **blend_settings}
+        else:  # a given settings value is validated now; keywords change it as replace() does
+            given = BlendSettings.from_dict(settings)
+            blend = _settings_dict(given.replace(**blend_settings) if blend_settings else given)
+        self._params = {**blend, "contact_model": contact_model, "n_draws": n_draws, "seed": seed}
 
     # ---- settings -------------------------------------------------------------------
+    @property
+    def settings(self) -> BlendSettings:
+        """The blend's settings as one validated value (raises ValueError on a bad setting)."""
+        return BlendSettings(**{name: self._params[name] for name in SETTING_NAMES})
+
     def get_params(self) -> dict[str, Any]:
-        """The settings as a dict."""
-        return {name: getattr(self, name) for name in _DEFAULTS}
+        """The settings as a dict (blend settings as given, then contact model, draws, seed)."""
+        return dict(self._params)
 
     def set_params(self, **params: Any) -> MatchupModel:
         """Change settings in place (fitted counts are kept); returns ``self``."""
         _check_names(params)
-        checked = _check_settings({**self.get_params(), **params})
-        for name in params:
-            setattr(self, name, checked[name])
+        merged = {**self._params, **follow_pitcher_weight(self._params, params)}
+        _check_settings(merged)
+        self._params = merged
         return self
 
-    def with_settings(self, **params: Any) -> MatchupModel:
-        """A new model with some settings changed, sharing this model's fitted counts."""
+    def with_settings(self, settings: BlendSettings | Mapping[str, Any] | None = None, **params: Any) -> MatchupModel:
+        """A new model with other settings, sharing this model's fitted counts.
+
+        Parameters
+        ----------
+        settings : BlendSettings or mapping, optional
+            New blend settings in full (the contact model, draws and seed are kept).
+        **params
+            Settings to change (any of :meth:`get_params`' names).
+        """
         _check_names(params)
-        new = type(self)(**{**self.get_params(), **params})
-        _check_settings(new.get_params())
+        base = dict(self._params)
+        if settings is not None:
+            base.update(_settings_dict(BlendSettings.from_dict(settings)))
+        new = type(self).__new__(type(self))
+        new._params = {**base, **follow_pitcher_weight(base, params)}
+        _check_settings(new._params)
         for name, value in vars(self).items():
             if name.endswith("_") and not name.startswith("__"):
                 setattr(new, name, value)  # fitted state is read-only and shared
         return new
 
     def __repr__(self) -> str:
-        changed = {k: v for k, v in self.get_params().items() if v != _DEFAULTS[k]}
+        defaults = {**SETTING_DEFAULTS, **_EXTRA_DEFAULTS}
+        changed = {k: v for k, v in self._params.items() if v != defaults[k]}
         inner = ", ".join(f"{k}={v!r}" for k, v in changed.items())
         return f"MatchupModel({inner})"
 
@@ -314,7 +325,7 @@ class MatchupModel:
         """
         from matchup_widgets.data import PlateAppearances, outcome_counts, player_table
 
-        _check_settings(self.get_params())
+        _check_settings(self._params)
         self.pas_ = pas
         self.batter_counts_ = CountCube.from_table(outcome_counts(pas, role="batter", by_season=True))
         self.pitcher_counts_ = CountCube.from_table(outcome_counts(pas, role="pitcher", by_season=True))
@@ -356,8 +367,8 @@ class MatchupModel:
             without plate appearances in the selected seasons.
         """
         self._check_fitted()
-        params = _check_settings(self.get_params())
-        bcube, pcube = self._cubes(params)
+        settings, extra = _check_settings(self._params)  # from here on the settings are trusted
+        bcube, pcube = self._cubes(settings, extra["contact_model"])
         batter_id = self._resolve(batter, "batter", bcube)
         pitcher_id = self._resolve(pitcher, "pitcher", pcube)
         if batter_hand is not None and batter_hand not in HANDS:
@@ -374,13 +385,14 @@ class MatchupModel:
             bh = 1 - ph
         else:
             bh = int(np.argmax(b_sides))
-        mask_b, mask_p = bcube.season_mask(params["seasons"]), pcube.season_mask(params["seasons"])
+        seasons = settings.seasons
+        mask_b, mask_p = bcube.season_mask(seasons), pcube.season_mask(seasons)
         b_all = bcube.player(batter_id, mask_b)
         p_all = pcube.player(pitcher_id, mask_p)
         for role, pid, counts in (("batter", batter_id, b_all), ("pitcher", pitcher_id, p_all)):
             if counts.sum() == 0:
                 msg = (
-                    f"{role} {pid!r} has no plate appearances in seasons {params['seasons']} "
+                    f"{role} {pid!r} has no plate appearances in seasons {seasons} "
                     f"(data has seasons {self.seasons_}). Widen the season range."
                 )
                 raise DataError(msg)
@@ -388,19 +400,19 @@ class MatchupModel:
         if lg_counts.sum() <= 0:
             msg = (
                 f"the league has no plate appearances in split {split_label(HANDS[bh], HANDS[ph])} "
-                f"for seasons {params['seasons']}; shrinkage needs a league baseline. Widen the season range."
+                f"for seasons {seasons}; shrinkage needs a league baseline. Widen the season range."
             )
             raise DataError(msg)
         league = lg_counts / lg_counts.sum()
         b_counts, p_counts = b_all[bh, ph], p_all[bh, ph]
-        b_shrunk = shrink(b_counts, league, params["batter_prior_pa"])
-        p_shrunk = shrink(p_counts, league, params["pitcher_prior_pa"])
-        weights = _blend_weights(params)
-        point = blend(params["method"], b_shrunk, p_shrunk, league, **weights)
+        b_shrunk = shrink(b_counts, league, settings.batter_prior_pa)
+        p_shrunk = shrink(p_counts, league, settings.pitcher_prior_pa)
+        weights = settings.blend_weights()
+        point = blend(settings.method, b_shrunk, p_shrunk, league, **weights)
         spread = matchup_interval(
-            params["method"], b_counts, p_counts, league,
-            batter_prior_pa=params["batter_prior_pa"], pitcher_prior_pa=params["pitcher_prior_pa"],
-            interval=params["interval"], n_draws=params["n_draws"], seed=params["seed"], point=point,
+            settings.method, b_counts, p_counts, league,
+            batter_prior_pa=settings.batter_prior_pa, pitcher_prior_pa=settings.pitcher_prior_pa,
+            interval=settings.interval, n_draws=extra["n_draws"], seed=extra["seed"], point=point,
             league_counts=lg_counts, **weights,
         )
         # each side's interval is widened to contain its bar (the shrunk point), as the matchup's is
@@ -440,7 +452,8 @@ class MatchupModel:
             effective_pa=float(spread["effective_pa"]),
             summary=summary,
             suggested_prior_pa=self.suggested_priors(),
-            settings=_plain_settings(params),
+            settings=_plain_settings(settings, extra),
+            blend_settings=settings,
             weights_source=run_w["source"],
             side_intervals=pd.DataFrame(
                 np.stack([side_lo, side_hi], axis=1).reshape(-1, len(OUTCOMES)),
@@ -461,13 +474,13 @@ class MatchupModel:
             appearances; ``inf`` when players differ no more than chance allows).
         """
         self._check_fitted()
-        params = _check_settings(self.get_params())
-        contact = _contact_key(params["contact_model"]) if params["basis"] == "contact" else None
-        key = ("priors", params["basis"], contact, params["seasons"], min_pa)
+        settings, extra = _check_settings(self._params)
+        contact = _contact_key(extra["contact_model"]) if settings.basis == "contact" else None
+        key = ("priors", settings.basis, contact, settings.seasons, min_pa)
         if key not in self.cache_:
             cols = {}
-            for role, cube in zip(("batter", "pitcher"), self._cubes(params)):
-                mask = cube.season_mask(params["seasons"])
+            for role, cube in zip(("batter", "pitcher"), self._cubes(settings, extra["contact_model"])):
+                mask = cube.season_mask(settings.seasons)
                 units = cube.counts[:, mask].sum(axis=1).reshape(-1, len(OUTCOMES))  # (player * 4 splits, 9)
                 strata = np.tile(np.arange(len(HANDS) ** 2), len(cube.ids))
                 try:
@@ -478,14 +491,13 @@ class MatchupModel:
         return self.cache_[key]
 
     # ---- helpers --------------------------------------------------------------------
-    def _cubes(self, params: dict[str, Any]) -> tuple[CountCube, CountCube]:
-        if params["basis"] == "observed":
+    def _cubes(self, settings: BlendSettings, contact_model: Any) -> tuple[CountCube, CountCube]:
+        if settings.basis == "observed":
             return self.batter_counts_, self.pitcher_counts_
-        cm = params["contact_model"]
-        key = ("contact", _contact_key(cm), None if _contact_by_season() else params["seasons"])
+        key = ("contact", _contact_key(contact_model))
         if key not in self.cache_:
             self.cache_[key] = tuple(
-                CountCube.from_table(_contact_counts(self.pas_, role=role, seasons=key[2], contact_model=cm))
+                CountCube.from_table(_contact_counts(self.pas_, role=role, contact_model=contact_model))
                 for role in ("batter", "pitcher")
             )
         return self.cache_[key]
@@ -506,35 +518,14 @@ class MatchupModel:
         return self.names_.get((role, player_id), player_id)
 
 
-# ---- the contact-basis hook (the only place that reaches into the contact layer) -------------
-def _contact_function() -> Any:
-    from matchup_widgets import contact
-
-    fn = getattr(contact, "contact_outcome_counts", None)
-    if fn is None:
-        msg = (
-            "basis='contact' needs matchup_widgets.contact.contact_outcome_counts, which this "
-            "installation does not provide yet; use basis='observed'."
-        )
-        raise NotImplementedError(msg)
-    return fn
-
-
-def _contact_by_season() -> bool:
-    try:
-        fn = _contact_function()
-    except NotImplementedError:
-        return False
-    return "by_season" in inspect.signature(fn).parameters
-
-
+# ---- the contact basis (the only place that reaches into the contact layer) ----------------
 def _contact_key(contact_model: Any) -> Any:
     """Cache key of a contact-model setting: a kind, the dataset default, or the fitted object."""
     return "dataset default" if contact_model is None else contact_model
 
 
-def _contact_counts(pas: Any, *, role: str, seasons: tuple[int, int] | None, contact_model: Any = None) -> pd.DataFrame:
-    fn = _contact_function()
+def _contact_counts(pas: Any, *, role: str, contact_model: Any = None) -> pd.DataFrame:
+    """Contact-basis counts per player, split and season (the seasons are selected later)."""
     from matchup_widgets import contact
 
     if contact_model is None:
@@ -543,33 +534,32 @@ def _contact_counts(pas: Any, *, role: str, seasons: tuple[int, int] | None, con
         model = contact.contact_model_for(pas, kind=contact_model)
     else:
         model = contact_model
-    if _contact_by_season():
-        return fn(pas, role=role, by_season=True, model=model)
-    return fn(pas, role=role, seasons=seasons, model=model)
+    return contact.contact_outcome_counts(pas, role=role, by_season=True, model=model)
 
 
 # ---- settings checks ------------------------------------------------------------------------
-def _check_names(params: dict[str, Any]) -> None:
-    unknown = sorted(set(params) - set(_DEFAULTS))
+_EXTRA_DEFAULTS: dict[str, Any] = {"contact_model": None, "n_draws": 2000, "seed": 0}
+_NAMES: tuple[str, ...] = (*SETTING_NAMES, *_EXTRA_DEFAULTS)
+
+
+def _check_names(params: Mapping[str, Any]) -> None:
+    unknown = sorted(set(params) - set(_NAMES))
     if unknown:
-        msg = f"unknown MatchupModel setting(s) {unknown}; valid settings: {sorted(_DEFAULTS)}."
+        msg = f"unknown MatchupModel setting(s) {unknown}; valid settings: {sorted(_NAMES)}."
         raise TypeError(msg)
 
 
-def _unit(value: Any, name: str, *, optional: bool = False) -> float | None:
-    return None if value is None and optional else _settings_unit(value, name)
-
-
-def _check_settings(params: dict[str, Any]) -> dict[str, Any]:
-    """Validate every setting; return them normalised (floats, a season tuple)."""
-    out = dict(params)
-    if out["method"] not in METHODS:
-        msg = f"method must be one of {list(METHODS)}; got {out['method']!r}."
+def _check_settings(params: Mapping[str, Any]) -> tuple[BlendSettings, dict[str, Any]]:
+    """The blend settings as one validated value, and the model's own settings checked."""
+    settings = BlendSettings(**{name: params[name] for name in SETTING_NAMES})
+    if settings.has_group_priors:
+        msg = (
+            "MatchupModel shrinks each side with one prior size for every outcome; give "
+            "batter_prior_pa and pitcher_prior_pa as numbers (per-group priors are a BlendSettings "
+            "form the model does not read yet)."
+        )
         raise ValueError(msg)
-    if out["basis"] not in BASES:
-        msg = f"basis must be one of {list(BASES)}; got {out['basis']!r}."
-        raise ValueError(msg)
-    cm = out["contact_model"]
+    cm = params["contact_model"]
     if not (
         cm is None
         or (isinstance(cm, str) and cm in _CONTACT_KINDS)
@@ -580,41 +570,25 @@ def _check_settings(params: dict[str, Any]) -> dict[str, Any]:
             f"matchup_widgets.contact.ContactModel; got {cm!r}. Fit it first: ContactModel(kind=...).fit(pas)."
         )
         raise ValueError(msg)
-    out["pitcher_weight"] = _unit(out["pitcher_weight"], "pitcher_weight")
-    out["first_weight"] = _unit(out["first_weight"], "first_weight", optional=True)
-    out["in_play_weight"] = _unit(out["in_play_weight"], "in_play_weight", optional=True)
-    for name in ("batter_prior_pa", "pitcher_prior_pa", "batter_exponent", "pitcher_exponent"):
-        out[name] = _nonnegative(out[name], name)
-    interval = out["interval"]
-    if not (isinstance(interval, (int, float)) and 0.0 < float(interval) < 1.0):
-        msg = f"interval must lie strictly between 0 and 1 (e.g. 0.8); got {interval!r}."
+    n_draws = params["n_draws"]
+    if not (isinstance(n_draws, (int, np.integer)) and not isinstance(n_draws, bool) and n_draws >= 10):
+        msg = f"n_draws must be a whole number >= 10; got {n_draws!r}."
         raise ValueError(msg)
-    if not (isinstance(out["n_draws"], (int, np.integer)) and out["n_draws"] >= 10):
-        msg = f"n_draws must be a whole number >= 10; got {out['n_draws']!r}."
-        raise ValueError(msg)
-    seed = out["seed"]
+    seed = params["seed"]
     if not (isinstance(seed, (int, np.integer)) and not isinstance(seed, bool) and seed >= 0):
         msg = f"seed must be a whole number >= 0 (it fixes the interval draws); got {seed!r}."
         raise ValueError(msg)
-    out["seasons"] = season_range(out["seasons"])
-    return out
+    return settings, {"contact_model": cm, "n_draws": int(n_draws), "seed": int(seed)}
 
 
-def _blend_weights(params: dict[str, Any]) -> dict[str, Any]:
-    return {
-        "pitcher_weight": params["pitcher_weight"],
-        "first_weight": params["first_weight"],
-        "in_play_weight": params["in_play_weight"],
-        "batter_exponent": params["batter_exponent"],
-        "pitcher_exponent": params["pitcher_exponent"],
-    }
+def _settings_dict(settings: BlendSettings) -> dict[str, Any]:
+    """A BlendSettings' fields as stored model params (tuples and mappings as they are)."""
+    return {name: getattr(settings, name) for name in SETTING_NAMES}
 
 
-def _plain_settings(params: dict[str, Any]) -> dict[str, Any]:
-    out = dict(params)
-    cm = out["contact_model"]
+def _plain_settings(settings: BlendSettings, extra: Mapping[str, Any]) -> dict[str, Any]:
+    """JSON-ready settings of an estimate: the blend's, then the contact model, draws and seed."""
+    cm = extra["contact_model"]
     if cm is not None and not isinstance(cm, str):  # a fitted model is named by its kind (JSON-ready)
-        out["contact_model"] = str(getattr(cm, "kind_", "fitted"))
-    if out["seasons"] is not None:
-        out["seasons"] = list(out["seasons"])
-    return out
+        cm = str(getattr(cm, "kind_", "fitted"))
+    return {**settings.to_dict(), "contact_model": cm, "n_draws": extra["n_draws"], "seed": extra["seed"]}

@@ -19,6 +19,12 @@ METHODS: tuple[str, ...] = ("linear", "odds-ratio", "two-stage")
 #: Where the counts come from: observed outcomes, or balls in play replaced by their
 #: contact-expected outcome probabilities (the contact layer's model).
 BASES: tuple[str, ...] = ("observed", "contact")
+#: The weights each method reads (what its settings sentence and the commands' text output name).
+METHOD_WEIGHTS: dict[str, tuple[str, ...]] = {
+    "linear": ("pitcher_weight",),
+    "odds-ratio": ("batter_exponent", "pitcher_exponent"),
+    "two-stage": ("first_weight", "in_play_weight"),
+}
 #: Outcome groups a prior may be given for (walk = BB + HBP; in_play = every ball in play).
 PRIOR_GROUPS: tuple[str, ...] = ("strikeout", "walk", "home_run", "in_play")
 
@@ -173,6 +179,10 @@ class BlendSettings:
             "pitcher_exponent": self.pitcher_exponent,
         }
 
+    def method_weights(self) -> dict[str, float]:
+        """Only the weights this method reads, by name (:data:`METHOD_WEIGHTS`)."""
+        return {name: getattr(self, name) for name in METHOD_WEIGHTS[self.method]}
+
     @property
     def has_group_priors(self) -> bool:
         """Whether either prior is given per outcome group."""
@@ -236,11 +246,7 @@ class BlendSettings:
         if unknown:
             msg = f"unknown setting(s) {unknown}; valid settings: {list(_FIELDS)}."
             raise TypeError(msg)
-        if "pitcher_weight" in changes:
-            for name in ("first_weight", "in_play_weight"):
-                if name not in changes and getattr(self, name) == self.pitcher_weight:
-                    changes[name] = None
-        return dataclasses.replace(self, **changes)
+        return dataclasses.replace(self, **follow_pitcher_weight(self, changes))
 
     def __getitem__(self, name: str) -> Any:
         """Read a setting by name, as in the dict :meth:`to_dict` writes."""
@@ -252,9 +258,86 @@ class BlendSettings:
         return hash(tuple(_hashable(getattr(self, n)) for n in _FIELDS))
 
 
+def follow_pitcher_weight(current: Any, changes: Mapping[str, Any]) -> dict[str, Any]:
+    """``changes`` with two-stage weights that followed the pitcher weight set to follow it again.
+
+    When ``changes`` moves ``pitcher_weight`` but not a two-stage weight that equals the current
+    pitcher weight (the default, or resolved from it), that weight becomes None so it takes the
+    new pitcher weight. ``current`` is a :class:`BlendSettings` or a mapping of settings.
+    """
+    out = dict(changes)
+    if "pitcher_weight" not in out:
+        return out
+    get = current.__getitem__
+    for name in ("first_weight", "in_play_weight"):
+        if name not in out and get(name) is not None and get(name) == get("pitcher_weight"):
+            out[name] = None
+    return out
+
+
 def _hashable(value: Any) -> Any:
     return tuple(sorted(value.items())) if isinstance(value, Mapping) else value
 
 
 #: Every setting name, in the order of :meth:`BlendSettings.to_dict`.
 SETTING_NAMES: tuple[str, ...] = _FIELDS
+#: The default of every setting, as given to :class:`BlendSettings` (two-stage weights None).
+SETTING_DEFAULTS: dict[str, Any] = {f.name: f.default for f in dataclasses.fields(BlendSettings)}
+
+
+def read_settings(data: Any, *, method: str | None = None) -> BlendSettings:
+    """Settings from JSON: one settings object, or the ``fit`` command's output.
+
+    Parameters
+    ----------
+    data : BlendSettings, mapping, or str / path of a JSON file
+        Either a settings mapping as :meth:`BlendSettings.to_dict` writes it, or the ``fit``
+        command's ``--json`` output (or :meth:`CalibrationResult.to_dict`), whose
+        ``"settings"`` holds one fitted settings object per method and the ``"best"`` one.
+    method : str, optional
+        With the ``fit`` output: which method's fitted settings to take; its best by held-out
+        Brier score when None. With one settings object: must match its method if given.
+
+    Raises
+    ------
+    ValueError
+        For a file that is neither shape, a method the file has no settings for, or a bad value.
+    """
+    if isinstance(data, BlendSettings):
+        found = data
+    else:
+        if not isinstance(data, Mapping):
+            data = _read_json(data)
+        fitted = data.get("settings") if isinstance(data, Mapping) else None
+        if isinstance(fitted, Mapping) and isinstance(fitted.get("best"), str):
+            chosen = fitted["best"] if method is None else method
+            if chosen not in fitted or chosen == "best":
+                msg = (
+                    f"the fitted settings have no method {chosen!r}; they hold "
+                    f"{[m for m in fitted if m != 'best']}. Fit that method, or choose one of those."
+                )
+                raise ValueError(msg)
+            return BlendSettings.from_dict(fitted[chosen])
+        found = BlendSettings.from_dict(data)
+    if method is not None and found.method != method:
+        msg = (
+            f"the settings are for the {found.method} blend, not {method!r}; drop the method, "
+            "or use settings fitted for it."
+        )
+        raise ValueError(msg)
+    return found
+
+
+def _read_json(path: Any) -> Any:
+    import json
+    from pathlib import Path
+
+    file = Path(path)
+    try:
+        return json.loads(file.read_text(encoding="utf-8"))
+    except FileNotFoundError:
+        msg = f"settings file {str(file)!r} does not exist; write one with `fit --json > FILE.json`."
+        raise ValueError(msg) from None
+    except (OSError, UnicodeDecodeError, json.JSONDecodeError) as exc:
+        msg = f"settings file {str(file)!r} is not readable JSON ({exc}); write one with `fit --json > FILE.json`."
+        raise ValueError(msg) from None

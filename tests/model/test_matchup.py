@@ -188,14 +188,6 @@ def test_repeatable_intervals(fitted):
     pd.testing.assert_frame_equal(one, two)
 
 
-def test_contact_basis_hook_says_what_is_missing(fitted, monkeypatch):
-    import matchup_widgets.contact as contact
-
-    monkeypatch.delattr(contact, "contact_outcome_counts", raising=False)
-    with pytest.raises(NotImplementedError, match="basis='contact' needs"):
-        fitted.with_settings(basis="contact").predict("bat03", "pit05")
-
-
 def test_suggested_priors_are_reported(fitted):
     got = fitted.suggested_priors()
     assert list(got.columns) == ["batter", "pitcher"]
